@@ -1,0 +1,121 @@
+// SPDX-License-Identifier: Apache-2.0
+/**
+ * @file material.h
+ * @brief A material: its exact model, conductivity, metadata and cached table.
+ */
+#ifndef QUANTACAL_CARDS_MATERIAL_H
+#define QUANTACAL_CARDS_MATERIAL_H
+
+#include <quantacal/models/conductivity.h>
+#include <quantacal/models/heat_capacity_model.h>
+#include <quantacal/tables/property_table.h>
+
+#include <memory>
+#include <mutex>
+#include <string>
+#include <vector>
+
+namespace quantacal {
+
+/** Per what quantity energies and capacities are expressed. */
+enum class Basis {
+  mass,  ///< J/kg, J/kg/K
+  mole,  ///< J/mol, J/mol/K
+  volume ///< J/m^3, J/m^3/K of the reference configuration (reference density)
+};
+
+/** A published source of one or more parameters of a card. */
+struct Source {
+  std::string parameter; ///< field path(s) it supports, e.g. "heat_capacity[0].theta"
+  std::string citation;  ///< "Kittel, Introduction to Solid State Physics", "from memory", ...
+};
+
+/** A published measured point a card is checked against (quantacal check). */
+struct Measurement {
+  enum class Quantity { specific_heat, stored_energy, conductivity };
+  Quantity quantity = Quantity::specific_heat;
+  double temperature = 0.0;    ///< K
+  double value = 0.0;          ///< SI, molar basis for specific heat and energy, W/m/K for k
+  double tolerance = 0.0;      ///< relative tolerance, e.g. 0.03
+  std::string source;          ///< citation
+  int line = 0;                ///< line in the card, for messages
+};
+
+/** Everything a Material is made of; filled by the card loader or by hand. */
+struct MaterialData {
+  std::string name;
+  std::string description;
+  std::string file;                 ///< card path ("" if built in code)
+  double molar_mass = 0.0;          ///< kg/mol (> 0)
+  double reference_density = 0.0;  ///< kg/m^3 (> 0)
+  double lower_temperature = 0.0;  ///< K, valid range (> 0)
+  double upper_temperature = 0.0;  ///< K, valid range
+  double reference_temperature = 0.0; ///< K; stored energy is zero here (0 = at 0 K)
+  std::shared_ptr<const HeatCapacityModel> model;
+  ConductivityPtr conductivity;
+  std::vector<Source> sources;
+  std::vector<Measurement> measurements;
+  TableOptions table_options;       ///< tolerance etc.; range is the valid range
+};
+
+/**
+ * A material as a solver sees it.
+ *
+ * Energies are relative to the reference temperature (0 K by default).
+ * The table is built on first use under std::call_once, so a Material may be
+ * shared between threads from the moment it is made. All temperatures are
+ * checked against the valid range; outside it a RangeError names the material.
+ */
+class Material {
+public:
+  /** @throws std::invalid_argument if a field is missing or non-physical */
+  explicit Material(MaterialData data);
+
+  const std::string& name() const noexcept { return data_.name; }
+  const MaterialData& data() const noexcept { return data_; }
+  double molar_mass() const noexcept { return data_.molar_mass; }               ///< kg/mol
+  double reference_density() const noexcept { return data_.reference_density; } ///< kg/m^3
+  double lower_temperature() const noexcept { return data_.lower_temperature; } ///< K
+  double upper_temperature() const noexcept { return data_.upper_temperature; } ///< K
+  const HeatCapacityModel& model() const noexcept { return *data_.model; }
+  const ConductivityModel& conductivity_model() const noexcept { return *data_.conductivity; }
+
+  /** Factor from molar values to @p basis: 1/M, 1 or rho/M. */
+  double basis_factor(Basis basis) const noexcept;
+
+  /** The cached table (molar), built on first call; thread-safe. */
+  const PropertyTable& table() const;
+  /** Shared handle of the same table. */
+  TablePtr shared_table() const;
+
+  /**
+   * Thermal state from the table on @p basis, energy relative to the reference temperature.
+   * @param temperature K, inside the valid range
+   * @throws RangeError outside the valid range, NaN or inf
+   */
+  ThermalState thermal(double temperature, Basis basis = Basis::mass) const;
+
+  /** Same from the exact model (slow; for checks and `--exact`). */
+  ThermalState thermal_exact(double temperature, Basis basis = Basis::mass) const;
+
+  /** k (W/m/K) and dk/dT at @p temperature; RangeError outside the valid range. */
+  ConductivityValue conductivity(double temperature) const;
+
+  /** Energy offset subtracted so that U(reference temperature) = 0, J/mol. */
+  double energy_offset() const noexcept { return energy_offset_; }
+
+  /** Throws RangeError unless lower <= T <= upper and T finite. */
+  void check_temperature(double temperature, const char* function) const;
+
+private:
+  MaterialData data_;
+  double energy_offset_ = 0.0;
+  mutable std::once_flag table_once_;
+  mutable TablePtr table_;
+};
+
+using MaterialPtr = std::shared_ptr<const Material>;
+
+} // namespace quantacal
+
+#endif

@@ -1,0 +1,21 @@
+// SPDX-License-Identifier: Apache-2.0
+/**
+ * @file quantacal.h
+ * @brief Umbrella header of the quantacal core (no deal.II, no yaml-cpp).
+ */
+#ifndef QUANTACAL_QUANTACAL_H
+#define QUANTACAL_QUANTACAL_H
+
+#include <quantacal/cards/card.h>
+#include <quantacal/cards/material.h>
+#include <quantacal/cards/units.h>
+#include <quantacal/exceptions.h>
+#include <quantacal/models/conductivity.h>
+#include <quantacal/models/contribution.h>
+#include <quantacal/models/heat_capacity_model.h>
+#include <quantacal/models/thermal_model.h>
+#include <quantacal/models/thermal_state.h>
+#include <quantacal/tables/property_table.h>
+#include <quantacal/version.h>
+
+#endif
