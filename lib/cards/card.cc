@@ -1,0 +1,392 @@
+// SPDX-License-Identifier: Apache-2.0
+// YAML material cards -> Material (docs/cards.md).
+#include <quantacal/cards/card.h>
+
+#include "card_reader.h"
+#include "units_detail.h"
+
+#include <quantacal/exceptions.h>
+
+#include <yaml-cpp/yaml.h>
+
+#include <cmath>
+#include <filesystem>
+#include <fstream>
+#include <sstream>
+#include <stdexcept>
+
+namespace quantacal {
+namespace detail {
+namespace {
+
+namespace fs = std::filesystem;
+
+const std::vector<std::string> kTopKeys = {
+    "name",        "description",           "molar_mass",      "reference_density",
+    "valid_range", "reference_temperature", "table_tolerance", "heat_capacity",
+    "dilation",    "conductivity",          "composition",     "sources",
+    "measurements"};
+
+/** Cards being loaded, outermost first, for cycle reports. */
+struct LoadChain {
+  std::vector<std::string> canonical;
+  std::vector<std::string> shown;
+};
+
+std::string canonical_name(const std::string& file) {
+  std::error_code ec;
+  const fs::path p = fs::weakly_canonical(fs::absolute(fs::path(file)), ec);
+  return ec ? file : p.string();
+}
+
+MaterialPtr load_file(const std::string& path, LoadChain& chain);
+
+YAML::Node parse_yaml(const std::string& text, const std::string& file) {
+  try {
+    return YAML::Load(text);
+  } catch (const YAML::Exception& e) {
+    const int line = e.mark.is_null() ? 0 : e.mark.line + 1;
+    const int column = e.mark.is_null() ? 0 : e.mark.column + 1;
+    throw CardError(file, line, column, "", "", "YAML syntax error: " + e.msg);
+  }
+}
+
+void read_sources(CardReader& reader, const YAML::Node& list, const std::string& path,
+                  MaterialData& data) {
+  reader.expect_sequence(list, path);
+  std::vector<std::string> parameter_paths;
+  for (const auto& p : reader.parameters())
+    parameter_paths.push_back(p.path);
+  std::vector<std::string> covered;
+  for (std::size_t i = 0; i < list.size(); ++i) {
+    const std::string ipath = index_path(path, i);
+    const YAML::Node item = list[i];
+    reader.check_keys(item, ipath, {"for", "cite"});
+    const YAML::Node cite = reader.require(item, ipath, "cite");
+    const std::string citation = reader.text(cite, join_path(ipath, "cite"));
+    if (citation.find_first_not_of(" \t") == std::string::npos)
+      reader.fail(cite, join_path(ipath, "cite"), citation, "expected a citation");
+    const YAML::Node for_node = reader.require(item, ipath, "for");
+    const std::string fpath = join_path(ipath, "for");
+    std::vector<std::pair<YAML::Node, std::string>> targets;
+    if (for_node.IsSequence()) {
+      for (std::size_t k = 0; k < for_node.size(); ++k)
+        targets.emplace_back(for_node[k], reader.text(for_node[k], index_path(fpath, k)));
+    } else {
+      targets.emplace_back(for_node, reader.text(for_node, fpath));
+    }
+    std::string joined;
+    for (const auto& [node, target] : targets) {
+      // A target names a parameter, or a prefix of parameters ("heat_capacity[0]").
+      bool matches = false;
+      for (const auto& p : parameter_paths)
+        matches = matches || p == target ||
+                  (p.size() > target.size() && p.compare(0, target.size(), target) == 0 &&
+                   (p[target.size()] == '.' || p[target.size()] == '['));
+      if (!matches)
+        reader.fail(node, fpath, target,
+                    "names no parameter of this card" +
+                        did_you_mean(target, parameter_paths));
+      covered.push_back(target);
+      joined += (joined.empty() ? "" : ", ") + target;
+    }
+    data.sources.push_back(Source{joined, citation});
+  }
+  for (const auto& p : reader.parameters()) {
+    bool ok = false;
+    for (const auto& c : covered)
+      ok = ok || p.path == c ||
+           (p.path.size() > c.size() && p.path.compare(0, c.size(), c) == 0 &&
+            (p.path[c.size()] == '.' || p.path[c.size()] == '['));
+    if (!ok)
+      reader.fail_at(p.line, p.column, p.path, p.value,
+                     "no `sources` entry names this parameter (every parameter needs a "
+                     "published source, \"from memory\" or \"illustrative\")");
+  }
+}
+
+void read_measurements(CardReader& reader, const YAML::Node& list,
+                       const std::string& path, MaterialData& data) {
+  reader.expect_sequence(list, path);
+  for (std::size_t i = 0; i < list.size(); ++i) {
+    const std::string ipath = index_path(path, i);
+    const YAML::Node item = list[i];
+    reader.check_keys(item, ipath, {"quantity", "T", "value", "tolerance", "source"});
+    Measurement m;
+    m.line = CardReader::line_of(item);
+    const YAML::Node q = reader.require(item, ipath, "quantity");
+    const std::string qpath = join_path(ipath, "quantity");
+    const std::string quantity = reader.text(q, qpath);
+    const std::vector<std::string> kinds = {"specific_heat", "stored_energy",
+                                            "conductivity"};
+    std::vector<Dimension> dimensions;
+    if (quantity == "specific_heat") {
+      m.quantity = Measurement::Quantity::specific_heat;
+      dimensions = {dimension::molar_capacity(), dimension::specific_capacity()};
+    } else if (quantity == "stored_energy") {
+      m.quantity = Measurement::Quantity::stored_energy;
+      dimensions = {dimension::molar_energy(), dimension::specific_energy()};
+    } else if (quantity == "conductivity") {
+      m.quantity = Measurement::Quantity::conductivity;
+      dimensions = {dimension::conductivity()};
+    } else {
+      reader.fail(q, qpath, quantity,
+                  "unknown quantity" + did_you_mean(quantity, kinds) +
+                      "; expected specific_heat, stored_energy or conductivity");
+    }
+    const std::string tpath = join_path(ipath, "T");
+    const YAML::Node t = reader.require(item, ipath, "T");
+    m.temperature = reader.positive_temperature(t, tpath);
+    if (m.temperature < data.lower_temperature || m.temperature > data.upper_temperature)
+      reader.fail(t, tpath, reader.text(t, tpath),
+                  "expected a temperature inside the valid range " +
+                      format_double(data.lower_temperature) + " K to " +
+                      format_double(data.upper_temperature) + " K");
+    const std::string vpath = join_path(ipath, "value");
+    const YAML::Node v = reader.require(item, ipath, "value");
+    std::size_t found = 0;
+    m.value = reader.quantity_of(v, vpath, dimensions, found);
+    if (found == 1)
+      m.value *= data.molar_mass; // per kg -> per mole
+    const std::string tolpath = join_path(ipath, "tolerance");
+    const YAML::Node tol = reader.require(item, ipath, "tolerance");
+    m.tolerance = reader.number(tol, tolpath);
+    if (!(m.tolerance > 0.0 && m.tolerance < 1.0))
+      reader.fail(tol, tolpath, reader.text(tol, tolpath),
+                  "expected a relative tolerance between 0 and 1 (e.g. 0.03)");
+    const YAML::Node s = reader.require(item, ipath, "source");
+    m.source = reader.text(s, join_path(ipath, "source"));
+    data.measurements.push_back(m);
+  }
+}
+
+std::vector<ContributionPtr> read_composition(CardReader& reader, const YAML::Node& list,
+                                              const std::string& path,
+                                              const std::string& file, LoadChain& chain,
+                                              double& molar_mass) {
+  reader.expect_sequence(list, path);
+  if (list.size() == 0)
+    reader.fail(list, path, "", "expected at least one component");
+  const fs::path folder = fs::path(file).parent_path();
+  std::vector<ContributionPtr> parts;
+  double sum = 0.0;
+  molar_mass = 0.0;
+  for (std::size_t i = 0; i < list.size(); ++i) {
+    const std::string ipath = index_path(path, i);
+    const YAML::Node item = list[i];
+    reader.check_keys(item, ipath, {"card", "mole_fraction"});
+    const YAML::Node card = reader.require(item, ipath, "card");
+    const std::string cpath = join_path(ipath, "card");
+    const std::string relative = reader.text(card, cpath);
+    const YAML::Node x_node = reader.require(item, ipath, "mole_fraction");
+    const std::string xpath = join_path(ipath, "mole_fraction");
+    const double x = reader.number(x_node, xpath);
+    if (!(x > 0.0 && x <= 1.0))
+      reader.fail(x_node, xpath, reader.text(x_node, xpath),
+                  "expected a mole fraction in (0, 1]");
+    reader.record_parameter(x_node, xpath);
+    sum += x;
+    const std::string component_file = (folder / fs::path(relative)).string();
+    const std::string canonical = canonical_name(component_file);
+    for (std::size_t k = 0; k < chain.canonical.size(); ++k) {
+      if (chain.canonical[k] == canonical) {
+        std::string cycle;
+        for (std::size_t j = k; j < chain.shown.size(); ++j)
+          cycle += chain.shown[j] + " -> ";
+        cycle += component_file;
+        reader.fail(card, cpath, relative, "composition cycle: " + cycle);
+      }
+    }
+    if (!fs::exists(component_file))
+      reader.fail(card, cpath, relative,
+                  "expected an existing card file (looked for " + component_file + ")");
+    const MaterialPtr component = load_file(component_file, chain);
+    parts.push_back(make_scaled(component->data().model, x));
+    molar_mass += x * component->molar_mass();
+  }
+  if (std::abs(sum - 1.0) > 1e-6)
+    reader.fail(list, path, format_double(sum),
+                "expected mole fractions summing to 1 (within 1e-6), but they sum to " +
+                    format_double(sum));
+  return parts;
+}
+
+MaterialPtr load_text(const std::string& text, const std::string& file,
+                      LoadChain& chain) {
+  const YAML::Node root = parse_yaml(text, file);
+  CardReader reader(file);
+  if (!root.IsDefined() || root.IsNull())
+    throw CardError(file, 1, 1, "", "", "empty card: expected a map of keys and values");
+  reader.check_keys(root, "", kTopKeys);
+
+  MaterialData data;
+  data.file = file;
+  data.name = reader.text(reader.require(root, "", "name"), "name");
+  data.description = reader.text(reader.require(root, "", "description"), "description");
+
+  const YAML::Node composition = reader.optional(root, "composition");
+  const YAML::Node heat_capacity = reader.optional(root, "heat_capacity");
+  if (composition.IsDefined() && heat_capacity.IsDefined())
+    reader.fail(composition, "composition", "",
+                "give either `heat_capacity` or `composition`, not both");
+  if (!composition.IsDefined() && !heat_capacity.IsDefined())
+    reader.fail(root, "heat_capacity", "",
+                "missing field (or `composition` for a card made of other cards)");
+
+  const YAML::Node mm = reader.optional(root, "molar_mass");
+  if (mm.IsDefined()) {
+    data.molar_mass = reader.quantity(mm, "molar_mass", dimension::molar_mass());
+    if (!(data.molar_mass > 0.0))
+      reader.fail(mm, "molar_mass", reader.text(mm, "molar_mass"),
+                  "expected a molar mass > 0 g/mol");
+    reader.record_parameter(mm, "molar_mass");
+  } else if (!composition.IsDefined()) {
+    reader.fail(root, "molar_mass", "", "missing field");
+  }
+
+  const YAML::Node rho = reader.require(root, "", "reference_density");
+  data.reference_density =
+      reader.quantity(rho, "reference_density", dimension::density());
+  if (!(data.reference_density > 0.0))
+    reader.fail(rho, "reference_density", reader.text(rho, "reference_density"),
+                "expected a density > 0 kg/m^3");
+  reader.record_parameter(rho, "reference_density");
+
+  const YAML::Node range = reader.require(root, "", "valid_range");
+  reader.check_keys(range, "valid_range", {"from", "to"});
+  data.lower_temperature = reader.positive_temperature(
+      reader.require(range, "valid_range", "from"), "valid_range.from");
+  const YAML::Node to = reader.require(range, "valid_range", "to");
+  data.upper_temperature = reader.positive_temperature(to, "valid_range.to");
+  if (!(data.upper_temperature > data.lower_temperature))
+    reader.fail(to, "valid_range.to", reader.text(to, "valid_range.to"),
+                "expected the end of the valid range above its start (" +
+                    format_double(data.lower_temperature) + " K)");
+
+  const YAML::Node tref = reader.optional(root, "reference_temperature");
+  if (tref.IsDefined()) {
+    data.reference_temperature =
+        reader.quantity(tref, "reference_temperature", dimension::temperature());
+    if (!(data.reference_temperature >= 0.0))
+      reader.fail(tref, "reference_temperature",
+                  reader.text(tref, "reference_temperature"),
+                  "expected a temperature >= 0 K");
+  }
+  const YAML::Node tol = reader.optional(root, "table_tolerance");
+  if (tol.IsDefined()) {
+    data.table_options.tolerance = reader.number(tol, "table_tolerance");
+    if (!(data.table_options.tolerance >= 1e-13 && data.table_options.tolerance <= 1e-2))
+      reader.fail(tol, "table_tolerance", reader.text(tol, "table_tolerance"),
+                  "expected a relative tolerance between 1e-13 and 1e-2");
+  }
+
+  std::vector<ContributionPtr> contributions;
+  std::optional<Dilation> dilation;
+  const YAML::Node dil = reader.optional(root, "dilation");
+  if (composition.IsDefined()) {
+    if (dil.IsDefined())
+      reader.fail(
+          dil, "dilation", "",
+          "a composed card takes the dilation of its components; remove `dilation`");
+    double composed_mass = 0.0;
+    contributions =
+        read_composition(reader, composition, "composition", file, chain, composed_mass);
+    if (!mm.IsDefined())
+      data.molar_mass = composed_mass;
+  } else {
+    CardBasics basics;
+    basics.molar_mass = data.molar_mass;
+    contributions = read_heat_capacity(reader, heat_capacity, "heat_capacity", basics);
+    if (dil.IsDefined())
+      dilation = read_dilation(reader, dil, "dilation");
+  }
+
+  ConductivityContext cc;
+  cc.lower_temperature = data.lower_temperature;
+  cc.upper_temperature = data.upper_temperature;
+  data.conductivity = read_conductivity(reader, reader.require(root, "", "conductivity"),
+                                        "conductivity", cc);
+
+  try {
+    data.model =
+        std::make_shared<const HeatCapacityModel>(data.name, contributions, dilation);
+  } catch (const std::invalid_argument& e) {
+    reader.fail(composition.IsDefined() ? composition : heat_capacity,
+                composition.IsDefined() ? "composition" : "heat_capacity", "", e.what());
+  }
+  // The model must be defined, and finite, over the whole valid range.
+  const HeatCapacityModel& model = *data.model;
+  if (data.lower_temperature < model.lower_temperature() ||
+      data.upper_temperature > model.upper_temperature())
+    reader.fail(range, "valid_range", "",
+                "expected a range inside the domain of the heat-capacity terms, " +
+                    format_double(model.lower_temperature()) + " K to " +
+                    format_double(model.upper_temperature()) + " K");
+  {
+    const int n = 64;
+    for (int i = 0; i <= n; ++i) {
+      const double t =
+          data.lower_temperature *
+          std::pow(data.upper_temperature / data.lower_temperature, double(i) / n);
+      try {
+        const ThermalState s = model.evaluate(std::min(t, data.upper_temperature));
+        if (!std::isfinite(s.energy) || !std::isfinite(s.capacity) || !(s.capacity > 0.0))
+          throw std::invalid_argument("C = " + format_double(s.capacity) +
+                                      " J/mol/K at " + format_double(t) + " K");
+      } catch (const std::exception& e) {
+        reader.fail(
+            range, "valid_range", "",
+            std::string("the heat-capacity model is not physical inside the valid "
+                        "range: ") +
+                e.what());
+      }
+    }
+  }
+  if (data.reference_temperature > 0.0 &&
+      (data.reference_temperature < model.lower_temperature() ||
+       data.reference_temperature > model.upper_temperature()))
+    reader.fail(tref, "reference_temperature", reader.text(tref, "reference_temperature"),
+                "expected a temperature inside the domain of the heat-capacity terms");
+
+  read_sources(reader, reader.require(root, "", "sources"), "sources", data);
+  const YAML::Node meas = reader.optional(root, "measurements");
+  if (meas.IsDefined())
+    read_measurements(reader, meas, "measurements", data);
+
+  try {
+    return std::make_shared<const Material>(std::move(data));
+  } catch (const std::invalid_argument& e) {
+    throw CardError(file, 0, 0, "", "", e.what());
+  }
+}
+
+MaterialPtr load_file(const std::string& path, LoadChain& chain) {
+  std::ifstream in(path, std::ios::binary);
+  if (!in)
+    throw CardError(path, 0, 0, "", "", "cannot open the card file");
+  std::ostringstream text;
+  text << in.rdbuf();
+  chain.canonical.push_back(canonical_name(path));
+  chain.shown.push_back(path);
+  MaterialPtr m = load_text(text.str(), path, chain);
+  chain.canonical.pop_back();
+  chain.shown.pop_back();
+  return m;
+}
+
+} // namespace
+} // namespace detail
+
+MaterialPtr load_card(const std::string& path) {
+  detail::LoadChain chain;
+  return detail::load_file(path, chain);
+}
+
+MaterialPtr load_card_from_string(const std::string& text, const std::string& file) {
+  detail::LoadChain chain;
+  chain.canonical.push_back(detail::canonical_name(file));
+  chain.shown.push_back(file);
+  return detail::load_text(text, file, chain);
+}
+
+} // namespace quantacal

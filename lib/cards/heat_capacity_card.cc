@@ -1,0 +1,257 @@
+// SPDX-License-Identifier: Apache-2.0
+// The `heat_capacity` list and the `dilation` block of a card.
+#include "card_reader.h"
+
+#include "units_detail.h"
+
+#include <functional>
+#include <map>
+#include <stdexcept>
+
+namespace quantacal::detail {
+namespace {
+
+const std::vector<std::string> kKinds = {
+    "debye", "einstein", "electronic", "schottky", "transition", "tabulated", "shomate"};
+
+double modes_of(CardReader& reader, const YAML::Node& node, const std::string& path) {
+  const YAML::Node m = reader.optional(node, "modes");
+  if (!m.IsDefined())
+    return 3.0;
+  const std::string mpath = join_path(path, "modes");
+  const double modes = reader.number(m, mpath);
+  if (!(modes > 0.0))
+    reader.fail(m, mpath, reader.text(m, mpath),
+                "expected a number of modes > 0 (3 per atom)");
+  reader.record_parameter(m, mpath);
+  return modes;
+}
+
+double temperature_parameter(CardReader& reader, const YAML::Node& node,
+                             const std::string& path, const std::string& key) {
+  const YAML::Node n = reader.require(node, path, key);
+  const std::string p = join_path(path, key);
+  const double t = reader.positive_temperature(n, p);
+  reader.record_parameter(n, p);
+  return t;
+}
+
+double positive_number(CardReader& reader, const YAML::Node& node,
+                       const std::string& path, const std::string& key,
+                       const std::string& what) {
+  const YAML::Node n = reader.require(node, path, key);
+  const std::string p = join_path(path, key);
+  const double v = reader.number(n, p);
+  if (!(v > 0.0))
+    reader.fail(n, p, reader.text(n, p), "expected " + what + " > 0");
+  reader.record_parameter(n, p);
+  return v;
+}
+
+/** `below: debye-t3` (default) or `below: "<energy at the first temperature>"`. */
+LowerExtension read_below(CardReader& reader, const YAML::Node& node,
+                          const std::string& path, const CardBasics& basics) {
+  LowerExtension below;
+  const YAML::Node b = reader.optional(node, "below");
+  if (!b.IsDefined())
+    return below;
+  const std::string bpath = join_path(path, "below");
+  const std::string t = reader.text(b, bpath);
+  if (t == "debye-t3")
+    return below;
+  std::size_t found = 0;
+  Quantity q;
+  try {
+    q = parse_quantity(t);
+  } catch (const std::invalid_argument&) {
+    reader.fail(b, bpath, t,
+                "expected \"debye-t3\" or the energy at the first temperature (e.g. "
+                "\"1.2 kJ/mol\")");
+  }
+  (void)q;
+  const double e = reader.quantity_of(
+      b, bpath, {dimension::molar_energy(), dimension::specific_energy()}, found);
+  if (!(e >= 0.0))
+    reader.fail(b, bpath, t, "expected an energy >= 0");
+  below.kind = LowerExtension::Kind::energy;
+  below.energy = found == 0 ? e : e * basics.molar_mass;
+  reader.record_parameter(b, bpath);
+  return below;
+}
+
+ContributionPtr read_contribution(CardReader& reader, const YAML::Node& node,
+                                  const std::string& path, const CardBasics& basics) {
+  reader.expect_map(node, path);
+  const std::string kpath = join_path(path, "kind");
+  const YAML::Node kind_node = reader.require(node, path, "kind");
+  const std::string kind = reader.text(kind_node, kpath);
+
+  if (kind == "debye") {
+    reader.check_keys(node, path, {"kind", "theta_D", "modes"});
+    const double theta = temperature_parameter(reader, node, path, "theta_D");
+    return make_debye(theta, modes_of(reader, node, path));
+  }
+  if (kind == "einstein") {
+    reader.check_keys(node, path, {"kind", "theta_E", "modes"});
+    const double theta = temperature_parameter(reader, node, path, "theta_E");
+    return make_einstein(theta, modes_of(reader, node, path));
+  }
+  if (kind == "electronic") {
+    reader.check_keys(node, path, {"kind", "gamma"});
+    const std::string gpath = join_path(path, "gamma");
+    const YAML::Node g = reader.require(node, path, "gamma");
+    const double gamma = reader.quantity(g, gpath, dimension::sommerfeld());
+    if (!(gamma >= 0.0))
+      reader.fail(g, gpath, reader.text(g, gpath),
+                  "expected a Sommerfeld coefficient >= 0 J/mol/K^2");
+    reader.record_parameter(g, gpath);
+    return make_electronic(gamma);
+  }
+  if (kind == "schottky") {
+    reader.check_keys(node, path, {"kind", "gap", "degeneracy_ratio", "centres"});
+    const double gap = temperature_parameter(reader, node, path, "gap");
+    const double g =
+        positive_number(reader, node, path, "degeneracy_ratio", "a degeneracy ratio");
+    const double n = positive_number(reader, node, path, "centres",
+                                     "a number of centres per formula unit");
+    return make_schottky(gap, g, n);
+  }
+  if (kind == "transition") {
+    reader.check_keys(node, path, {"kind", "temperature", "latent_heat", "width"});
+    const double t = temperature_parameter(reader, node, path, "temperature");
+    const std::string lpath = join_path(path, "latent_heat");
+    const YAML::Node l = reader.require(node, path, "latent_heat");
+    std::size_t found = 0;
+    double latent = reader.quantity_of(
+        l, lpath, {dimension::molar_energy(), dimension::specific_energy()}, found);
+    if (found == 1)
+      latent *= basics.molar_mass;
+    if (!(latent > 0.0))
+      reader.fail(l, lpath, reader.text(l, lpath), "expected a latent heat > 0");
+    reader.record_parameter(l, lpath);
+    const std::string wpath = join_path(path, "width");
+    const YAML::Node w = reader.require(node, path, "width");
+    const double width = reader.positive_temperature_difference(w, wpath);
+    reader.record_parameter(w, wpath);
+    if (!(width < t / 4))
+      reader.fail(w, wpath, reader.text(w, wpath),
+                  "expected a width below a quarter of the transition temperature");
+    return make_transition(t, latent, width);
+  }
+  if (kind == "tabulated") {
+    reader.check_keys(node, path, {"kind", "columns", "rows", "points", "below"});
+    ReadTable t = read_temperature_table(
+        reader, node, path, {dimension::molar_capacity(), dimension::specific_capacity()},
+        "a heat capacity (J/mol/K or J/kg/K)", true);
+    if (t.y_dimension == 1)
+      for (double& c : t.y)
+        c *= basics.molar_mass;
+    const bool has_points = node["points"].IsDefined();
+    const std::string rows_path = join_path(path, has_points ? "points" : "rows");
+    reader.record_parameter(has_points ? node["points"] : node["rows"], rows_path);
+    const LowerExtension below = read_below(reader, node, path, basics);
+    return make_tabulated(std::move(t.x), std::move(t.y), below);
+  }
+  if (kind == "shomate") {
+    reader.check_keys(node, path, {"kind", "A", "B", "C", "D", "E", "range", "below"});
+    std::vector<double> coefficients;
+    for (const char* key : {"A", "B", "C", "D", "E"}) {
+      const YAML::Node c = reader.require(node, path, key);
+      const std::string cpath = join_path(path, key);
+      coefficients.push_back(reader.number(c, cpath));
+      reader.record_parameter(c, cpath);
+    }
+    const std::string rpath = join_path(path, "range");
+    const YAML::Node range = reader.require(node, path, "range");
+    reader.check_keys(range, rpath, {"from", "to"});
+    const double from = reader.positive_temperature(reader.require(range, rpath, "from"),
+                                                    join_path(rpath, "from"));
+    const YAML::Node to_node = reader.require(range, rpath, "to");
+    const double to = reader.positive_temperature(to_node, join_path(rpath, "to"));
+    if (!(to > from))
+      reader.fail(to_node, join_path(rpath, "to"),
+                  reader.text(to_node, join_path(rpath, "to")),
+                  "expected the end of the range above its start");
+    reader.record_parameter(range, rpath);
+    const LowerExtension below = read_below(reader, node, path, basics);
+    return make_shomate(coefficients, from, to, below);
+  }
+  std::string list;
+  for (const auto& k : kKinds)
+    list += (list.empty() ? "" : ", ") + k;
+  reader.fail(kind_node, kpath, kind,
+              "unknown contribution kind" + did_you_mean(kind, kKinds) +
+                  "; expected one of: " + list);
+}
+
+} // namespace
+
+std::vector<ContributionPtr> read_heat_capacity(CardReader& reader,
+                                                const YAML::Node& list,
+                                                const std::string& path,
+                                                const CardBasics& basics) {
+  reader.expect_sequence(list, path);
+  if (list.size() == 0)
+    reader.fail(list, path, "", "expected at least one contribution");
+  std::vector<ContributionPtr> contributions;
+  for (std::size_t i = 0; i < list.size(); ++i) {
+    const std::string p = index_path(path, i);
+    const YAML::Node item = list[i];
+    try {
+      contributions.push_back(read_contribution(reader, item, p, basics));
+    } catch (const std::invalid_argument& e) {
+      // The model layer's own check of a parameter (Boost.Math style message).
+      reader.fail(item, p, "", e.what());
+    }
+  }
+  return contributions;
+}
+
+Dilation read_dilation(CardReader& reader, const YAML::Node& node,
+                       const std::string& path) {
+  reader.check_keys(node, path,
+                    {"nernst_lindemann", "grueneisen", "bulk_modulus", "molar_volume"});
+  Dilation d;
+  const YAML::Node nl = reader.optional(node, "nernst_lindemann");
+  const YAML::Node gg = reader.optional(node, "grueneisen");
+  if (nl.IsDefined()) {
+    for (const char* key : {"grueneisen", "bulk_modulus", "molar_volume"})
+      if (node[key].IsDefined())
+        reader.fail(node[key], join_path(path, key), "",
+                    "give either `nernst_lindemann` or `grueneisen`, `bulk_modulus` and "
+                    "`molar_volume`, not both");
+    const std::string p = join_path(path, "nernst_lindemann");
+    d.kind = Dilation::Kind::nernst_lindemann;
+    d.coefficient = reader.quantity(nl, p, dimension::inverse_molar_energy());
+    if (!(d.coefficient > 0.0))
+      reader.fail(nl, p, reader.text(nl, p),
+                  "expected a Nernst-Lindemann coefficient > 0 mol/J");
+    reader.record_parameter(nl, p);
+    return d;
+  }
+  if (!gg.IsDefined())
+    reader.fail(node, path, "",
+                "expected `nernst_lindemann`, or `grueneisen` with `bulk_modulus` and "
+                "`molar_volume`");
+  d.kind = Dilation::Kind::grueneisen;
+  const std::string gpath = join_path(path, "grueneisen");
+  d.grueneisen = reader.number(gg, gpath);
+  if (!(d.grueneisen > 0.0))
+    reader.fail(gg, gpath, reader.text(gg, gpath), "expected a Grueneisen parameter > 0");
+  reader.record_parameter(gg, gpath);
+  const std::string kpath = join_path(path, "bulk_modulus");
+  const YAML::Node k = reader.require(node, path, "bulk_modulus");
+  d.bulk_modulus = reader.quantity(k, kpath, dimension::pressure());
+  if (!(d.bulk_modulus > 0.0))
+    reader.fail(k, kpath, reader.text(k, kpath), "expected a bulk modulus > 0 Pa");
+  reader.record_parameter(k, kpath);
+  const std::string vpath = join_path(path, "molar_volume");
+  const YAML::Node v = reader.require(node, path, "molar_volume");
+  d.molar_volume = reader.quantity(v, vpath, dimension::molar_volume());
+  if (!(d.molar_volume > 0.0))
+    reader.fail(v, vpath, reader.text(v, vpath), "expected a molar volume > 0 m^3/mol");
+  reader.record_parameter(v, vpath);
+  return d;
+}
+
+} // namespace quantacal::detail

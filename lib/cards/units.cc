@@ -1,0 +1,441 @@
+// SPDX-License-Identifier: Apache-2.0
+// Quantities with units as strings -> SI, with dimension checks.
+//
+// The list of units is closed and documented in docs/cards.md ("Units"). A unit
+// expression is a product of factors: `J/mol/K^2`, `W/m^2/K`, `J/(mol K)`,
+// `kg m^-3`, `mJ*mol^-1*K^-2`. A `/` divides by the factor (or parenthesised
+// group) that follows it only, so `J/mol/K` is J mol^-1 K^-1.
+#include "units_detail.h"
+
+#include <quantacal/cards/units.h>
+
+#include <algorithm>
+#include <cctype>
+#include <charconv>
+#include <cmath>
+#include <map>
+#include <stdexcept>
+#include <utility>
+
+namespace quantacal {
+namespace {
+
+// Exponent order: kg, m, s, K, mol, A.
+Dimension dim(int kg, int m, int s, int k, int mol, int a = 0) {
+  Dimension d;
+  d.exponents = {kg, m, s, k, mol, a};
+  return d;
+}
+
+Dimension operator*(const Dimension& a, const Dimension& b) {
+  Dimension r;
+  for (std::size_t i = 0; i < r.exponents.size(); ++i)
+    r.exponents[i] = a.exponents[i] + b.exponents[i];
+  return r;
+}
+
+Dimension power(const Dimension& a, int p) {
+  Dimension r;
+  for (std::size_t i = 0; i < r.exponents.size(); ++i)
+    r.exponents[i] = a.exponents[i] * p;
+  return r;
+}
+
+struct UnitSymbol {
+  double scale;
+  Dimension dimension;
+  bool is_celsius;
+};
+
+// The closed list of unit symbols (docs/cards.md, "Units").
+const std::map<std::string, UnitSymbol>& unit_symbols() {
+  static const std::map<std::string, UnitSymbol> symbols = [] {
+    std::map<std::string, UnitSymbol> s;
+    const auto add = [&s](const std::string& name, double scale, Dimension d) {
+      s.emplace(name, UnitSymbol{scale, d, false});
+    };
+    // Prefixed families: symbol, dimension, allowed prefixes.
+    const std::map<char, double> prefix = {{'n', 1e-9}, {'u', 1e-6}, {'m', 1e-3},
+                                           {'c', 1e-2}, {'k', 1e3},  {'M', 1e6},
+                                           {'G', 1e9}};
+    const auto family = [&](const std::string& name, double scale, Dimension d,
+                            const std::string& prefixes) {
+      add(name, scale, d);
+      for (char p : prefixes)
+        add(std::string(1, p) + name, scale * prefix.at(p), d);
+    };
+    family("m", 1.0, dim(0, 1, 0, 0, 0), "numck");  // nm um mm cm km
+    family("g", 1e-3, dim(1, 0, 0, 0, 0), "umk");   // ug mg g kg
+    family("s", 1.0, dim(0, 0, 1, 0, 0), "num");    // ns us ms s
+    family("K", 1.0, dim(0, 0, 0, 1, 0), "m");      // mK K
+    family("mol", 1.0, dim(0, 0, 0, 0, 1), "mk");   // mmol mol kmol
+    family("J", 1.0, dim(1, 2, -2, 0, 0), "umkMG"); // uJ mJ J kJ MJ GJ
+    family("W", 1.0, dim(1, 2, -3, 0, 0), "umkMG"); // uW mW W kW MW GW
+    family("Pa", 1.0, dim(1, -1, -2, 0, 0), "kMG"); // Pa kPa MPa GPa
+    family("N", 1.0, dim(1, 1, -2, 0, 0), "k");     // N kN
+    add("min", 60.0, dim(0, 0, 1, 0, 0));
+    add("h", 3600.0, dim(0, 0, 1, 0, 0));
+    add("L", 1e-3, dim(0, 3, 0, 0, 0));
+    add("bar", 1e5, dim(1, -1, -2, 0, 0));
+    add("1", 1.0, dim(0, 0, 0, 0, 0));
+    s.emplace("degC", UnitSymbol{1.0, dim(0, 0, 0, 1, 0), true});
+    return s;
+  }();
+  return symbols;
+}
+
+// Recursive-descent parser of a unit expression.
+class UnitParser {
+public:
+  explicit UnitParser(const std::string& text) : text_(text) {}
+
+  UnitSymbol parse() {
+    UnitSymbol result = product();
+    skip_space();
+    if (pos_ != text_.size())
+      fail("unexpected '" + std::string(1, text_[pos_]) + "'");
+    return result;
+  }
+
+  int n_factors() const { return n_factors_; }
+  bool only_celsius() const {
+    return n_factors_ == 1 && n_celsius_ == 1 && !powered_celsius_;
+  }
+
+private:
+  [[noreturn]] void fail(const std::string& what) const {
+    throw std::invalid_argument("unit \"" + text_ + "\": " + what);
+  }
+
+  void skip_space() {
+    while (pos_ < text_.size() && (text_[pos_] == ' ' || text_[pos_] == '\t'))
+      ++pos_;
+  }
+
+  static bool is_symbol_char(char c) {
+    return (c >= 'a' && c <= 'z') || (c >= 'A' && c <= 'Z') || c == '1';
+  }
+
+  UnitSymbol product() {
+    UnitSymbol acc{1.0, Dimension{}, false};
+    bool first = true;
+    while (true) {
+      skip_space();
+      if (pos_ >= text_.size() || text_[pos_] == ')')
+        break;
+      int sign = 1;
+      if (text_[pos_] == '/') {
+        sign = -1;
+        ++pos_;
+        skip_space();
+      } else if (text_[pos_] == '*' || text_[pos_] == '.') {
+        if (first)
+          fail("a unit cannot start with '" + std::string(1, text_[pos_]) + "'");
+        ++pos_;
+        skip_space();
+      }
+      const UnitSymbol f = factor();
+      acc.scale *= sign > 0 ? f.scale : 1.0 / f.scale;
+      acc.dimension = acc.dimension * power(f.dimension, sign);
+      first = false;
+    }
+    if (first)
+      fail("missing unit symbol");
+    return acc;
+  }
+
+  UnitSymbol factor() {
+    skip_space();
+    UnitSymbol base;
+    bool celsius = false;
+    if (pos_ < text_.size() && text_[pos_] == '(') {
+      ++pos_;
+      base = product();
+      skip_space();
+      if (pos_ >= text_.size() || text_[pos_] != ')')
+        fail("missing ')'");
+      ++pos_;
+    } else {
+      const std::size_t start = pos_;
+      while (pos_ < text_.size() && is_symbol_char(text_[pos_]))
+        ++pos_;
+      if (start == pos_)
+        fail(pos_ < text_.size() ? "unexpected '" + std::string(1, text_[pos_]) + "'"
+                                 : "missing unit symbol");
+      const std::string symbol = text_.substr(start, pos_ - start);
+      const auto it = unit_symbols().find(symbol);
+      if (it == unit_symbols().end())
+        fail("unknown unit '" + symbol + "'" +
+             detail::did_you_mean(symbol, unit_names()) +
+             " (the list of units is in docs/cards.md)");
+      base = it->second;
+      celsius = base.is_celsius;
+      ++n_factors_;
+      if (celsius)
+        ++n_celsius_;
+    }
+    skip_space();
+    if (pos_ < text_.size() && text_[pos_] == '^') {
+      ++pos_;
+      skip_space();
+      int exponent = 0;
+      const char* begin = text_.data() + pos_;
+      const char* end = text_.data() + text_.size();
+      if (begin != end && *begin == '+')
+        ++begin;
+      const auto r = std::from_chars(begin, end, exponent);
+      if (r.ec != std::errc() || exponent == 0)
+        fail("expected a non-zero integer exponent after '^'");
+      pos_ = static_cast<std::size_t>(r.ptr - text_.data());
+      base.scale = std::pow(base.scale, exponent);
+      base.dimension = power(base.dimension, exponent);
+      if (celsius)
+        powered_celsius_ = true;
+    }
+    base.is_celsius = false;
+    return base;
+  }
+
+  static std::vector<std::string> unit_names() {
+    std::vector<std::string> names;
+    for (const auto& [name, symbol] : unit_symbols())
+      names.push_back(name);
+    return names;
+  }
+
+  const std::string& text_;
+  std::size_t pos_ = 0;
+  int n_factors_ = 0;
+  int n_celsius_ = 0;
+  bool powered_celsius_ = false;
+};
+
+} // namespace
+
+std::string Dimension::to_string() const {
+  static const char* names[] = {"kg", "m", "s", "K", "mol", "A"};
+  std::string out;
+  for (std::size_t i = 0; i < exponents.size(); ++i) {
+    if (exponents[i] == 0)
+      continue;
+    if (!out.empty())
+      out += ' ';
+    out += names[i];
+    if (exponents[i] != 1)
+      out += '^' + std::to_string(exponents[i]);
+  }
+  return out.empty() ? "1" : out;
+}
+
+namespace dimension {
+Dimension dimensionless() {
+  return dim(0, 0, 0, 0, 0);
+}
+Dimension temperature() {
+  return dim(0, 0, 0, 1, 0);
+}
+Dimension molar_capacity() {
+  return dim(1, 2, -2, -1, -1);
+}
+Dimension specific_capacity() {
+  return dim(0, 2, -2, -1, 0);
+}
+Dimension molar_energy() {
+  return dim(1, 2, -2, 0, -1);
+}
+Dimension specific_energy() {
+  return dim(0, 2, -2, 0, 0);
+}
+Dimension sommerfeld() {
+  return dim(1, 2, -2, -2, -1);
+}
+Dimension molar_mass() {
+  return dim(1, 0, 0, 0, -1);
+}
+Dimension density() {
+  return dim(1, -3, 0, 0, 0);
+}
+Dimension conductivity() {
+  return dim(1, 1, -3, -1, 0);
+}
+Dimension pressure() {
+  return dim(1, -1, -2, 0, 0);
+}
+Dimension molar_volume() {
+  return dim(0, 3, 0, 0, -1);
+}
+Dimension inverse_molar_energy() {
+  return dim(-1, -2, 2, 0, 1);
+}
+Dimension heat_transfer_coefficient() {
+  return dim(1, 0, -3, -1, 0);
+}
+Dimension heat_flux() {
+  return dim(1, 0, -3, 0, 0);
+}
+Dimension power_density() {
+  return dim(1, -1, -3, 0, 0);
+}
+Dimension time() {
+  return dim(0, 0, 1, 0, 0);
+}
+Dimension length() {
+  return dim(0, 1, 0, 0, 0);
+}
+} // namespace dimension
+
+namespace detail {
+
+std::string dimension_description(const Dimension& d) {
+  static const std::vector<std::pair<Dimension, std::string>> known = {
+      {dimension::dimensionless(), "a plain number"},
+      {dimension::temperature(), "a temperature (K, mK or degC)"},
+      {dimension::molar_capacity(), "a molar heat capacity (e.g. J/mol/K)"},
+      {dimension::specific_capacity(), "a specific heat capacity (e.g. J/kg/K)"},
+      {dimension::molar_energy(), "a molar energy (e.g. J/mol, kJ/mol)"},
+      {dimension::specific_energy(), "a specific energy (e.g. J/kg, kJ/kg)"},
+      {dimension::sommerfeld(), "a Sommerfeld coefficient (e.g. mJ/mol/K^2)"},
+      {dimension::molar_mass(), "a molar mass (e.g. g/mol)"},
+      {dimension::density(), "a density (e.g. kg/m^3, g/cm^3)"},
+      {dimension::conductivity(), "a thermal conductivity (e.g. W/m/K)"},
+      {dimension::pressure(), "a pressure (e.g. Pa, GPa)"},
+      {dimension::molar_volume(), "a molar volume (e.g. cm^3/mol)"},
+      {dimension::inverse_molar_energy(), "an inverse molar energy (e.g. mol/J)"},
+      {dimension::heat_transfer_coefficient(),
+       "a heat-transfer coefficient (e.g. W/m^2/K)"},
+      {dimension::heat_flux(), "a heat flux (e.g. W/m^2)"},
+      {dimension::power_density(), "a power density (e.g. W/m^3)"},
+      {dimension::time(), "a time (e.g. s, min, h)"},
+      {dimension::length(), "a length (e.g. m, mm)"},
+  };
+  for (const auto& [dimension, text] : known)
+    if (dimension == d)
+      return text;
+  return "a quantity of dimension " + d.to_string();
+}
+
+std::size_t edit_distance(const std::string& a, const std::string& b) {
+  std::vector<std::size_t> row(b.size() + 1);
+  for (std::size_t j = 0; j <= b.size(); ++j)
+    row[j] = j;
+  for (std::size_t i = 1; i <= a.size(); ++i) {
+    std::size_t diagonal = row[0];
+    row[0] = i;
+    for (std::size_t j = 1; j <= b.size(); ++j) {
+      const std::size_t above = row[j];
+      const std::size_t cost = a[i - 1] == b[j - 1] ? 0 : 1;
+      row[j] = std::min({row[j] + 1, row[j - 1] + 1, diagonal + cost});
+      diagonal = above;
+    }
+  }
+  return row[b.size()];
+}
+
+std::string did_you_mean(const std::string& word,
+                         const std::vector<std::string>& candidates) {
+  const auto lower = [](std::string s) {
+    for (char& ch : s)
+      ch = static_cast<char>(std::tolower(static_cast<unsigned char>(ch)));
+    return s;
+  };
+  // A difference of case only is the nearest miss of all.
+  for (const auto& c : candidates)
+    if (c != word && lower(c) == lower(word))
+      return " (did you mean '" + c + "'?)";
+  std::string best;
+  std::size_t best_distance = std::string::npos;
+  for (const auto& c : candidates) {
+    const std::size_t d = edit_distance(word, c);
+    if (d < best_distance) {
+      best_distance = d;
+      best = c;
+    }
+  }
+  // Suggest only a near miss: at most 2 edits, and fewer than half the word.
+  const std::size_t limit =
+      std::min<std::size_t>(2, std::max<std::size_t>(1, word.size() / 2));
+  if (best.empty() || best_distance > limit)
+    return "";
+  return " (did you mean '" + best + "'?)";
+}
+
+double parse_number(const std::string& text) {
+  std::size_t begin = 0, end = text.size();
+  while (begin < end && (text[begin] == ' ' || text[begin] == '\t'))
+    ++begin;
+  while (end > begin && (text[end - 1] == ' ' || text[end - 1] == '\t'))
+    --end;
+  const char* first = text.data() + begin;
+  const char* last = text.data() + end;
+  if (first != last && *first == '+')
+    ++first;
+  double value = 0.0;
+  const auto r = std::from_chars(first, last, value);
+  if (r.ec != std::errc() || r.ptr != last || first == last)
+    throw std::invalid_argument("\"" + text + "\" is not a number");
+  if (!std::isfinite(value))
+    throw std::invalid_argument("\"" + text + "\" is not a finite number");
+  return value;
+}
+
+} // namespace detail
+
+Quantity parse_quantity(const std::string& text) {
+  std::size_t begin = 0;
+  while (begin < text.size() && (text[begin] == ' ' || text[begin] == '\t'))
+    ++begin;
+  const char* first = text.data() + begin;
+  const char* last = text.data() + text.size();
+  if (first != last && *first == '+')
+    ++first;
+  double number = 0.0;
+  const auto r = std::from_chars(first, last, number);
+  if (r.ec == std::errc::result_out_of_range)
+    throw std::invalid_argument("\"" + text + "\": number out of range");
+  if (r.ec != std::errc() || first == last)
+    throw std::invalid_argument("\"" + text + "\" does not start with a number");
+  if (!std::isfinite(number))
+    throw std::invalid_argument("\"" + text + "\": NaN and infinity are not allowed");
+  std::string unit(r.ptr, last);
+  while (!unit.empty() && (unit.back() == ' ' || unit.back() == '\t'))
+    unit.pop_back();
+  Quantity q;
+  if (unit.find_first_not_of(" \t") == std::string::npos) {
+    q.value = number;
+    q.dimension = dimension::dimensionless();
+    return q;
+  }
+  // A unit that starts with a letter must be separated from the number only
+  // by optional blanks; "343K" and "343 K" both read.
+  UnitParser parser(unit);
+  UnitSymbol u;
+  try {
+    u = parser.parse();
+  } catch (const std::invalid_argument& e) {
+    throw std::invalid_argument("\"" + text + "\": " + e.what());
+  }
+  q.dimension = u.dimension;
+  if (parser.only_celsius()) {
+    q.value = number + 273.15;
+    q.is_temperature_offset = true;
+  } else {
+    q.value = number * u.scale;
+  }
+  if (!std::isfinite(q.value))
+    throw std::invalid_argument("\"" + text + "\": value out of range in SI units");
+  return q;
+}
+
+double parse_quantity(const std::string& text, const Dimension& expected) {
+  const Quantity q = parse_quantity(text);
+  if (q.dimension != expected) {
+    const std::string found = q.dimension == dimension::dimensionless()
+                                  ? "a plain number without a unit"
+                                  : detail::dimension_description(q.dimension);
+    throw std::invalid_argument("expected " + detail::dimension_description(expected) +
+                                " but found " + found);
+  }
+  return q.value;
+}
+
+} // namespace quantacal

@@ -1,0 +1,29 @@
+// SPDX-License-Identifier: Apache-2.0
+// Internal helpers of the card layer shared by units.cc and the card readers.
+#ifndef QUANTACAL_LIB_CARDS_UNITS_DETAIL_H
+#define QUANTACAL_LIB_CARDS_UNITS_DETAIL_H
+
+#include <quantacal/cards/units.h>
+
+#include <cstddef>
+#include <string>
+#include <vector>
+
+namespace quantacal::detail {
+
+/** "a temperature (K, mK or degC)", "a molar energy (e.g. J/mol)", ... */
+std::string dimension_description(const Dimension& d);
+
+/** Levenshtein distance (insertions, deletions, substitutions). */
+std::size_t edit_distance(const std::string& a, const std::string& b);
+
+/** " (did you mean 'x'?)" for the nearest candidate within 2 edits, else "". */
+std::string did_you_mean(const std::string& word,
+                         const std::vector<std::string>& candidates);
+
+/** A whole string as a finite number, locale-free; std::invalid_argument otherwise. */
+double parse_number(const std::string& text);
+
+} // namespace quantacal::detail
+
+#endif
