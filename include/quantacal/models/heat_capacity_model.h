@@ -55,8 +55,10 @@ public:
    * @param name the material's name (for messages)
    * @param contributions the additive terms (at least one)
    * @param dilation optional C_p - C_v correction
-   * @throws std::invalid_argument if there is no term, or 4 A T C_v >= 1 is
-   *         reached inside the domain (checked lazily by evaluate)
+   * @throws std::invalid_argument if there is no term, a term is null, the terms'
+   *         domains do not overlap, or the dilation parameters are non-physical.
+   *         (A Nernst-Lindemann dilation with 4 A T C_v >= 1 is found lazily:
+   *         evaluate() then throws NumericalError naming the material and T.)
    */
   HeatCapacityModel(std::string name, std::vector<ContributionPtr> contributions,
                     std::optional<Dilation> dilation = std::nullopt);

@@ -31,7 +31,7 @@ public:
    */
   virtual ThermalState evaluate(double temperature) const = 0;
 
-  /** Lowest temperature at which evaluate() is defined, K (> 0). */
+  /** Lowest temperature at which evaluate() is defined, K; 0 means every T > 0. */
   virtual double lower_temperature() const = 0;
   /** Highest temperature at which evaluate() is defined, K (may be inf). */
   virtual double upper_temperature() const = 0;
