@@ -1,0 +1,18 @@
+# SPDX-License-Identifier: Apache-2.0
+# Install-tree test: install this build into a staging prefix under the build folder,
+# then configure, build and run tests/consumer (find_package(quantacal)) against it.
+set(_qc_consumer_targets quantacal quantacal_cli)
+if(TARGET quantacal_fe)
+  list(APPEND _qc_consumer_targets quantacal_fe)
+endif()
+string(REPLACE ";" "\\;" _qc_consumer_targets_arg "${_qc_consumer_targets}")
+add_test(NAME consumer.find_package_install_tree
+         COMMAND ${CMAKE_COMMAND}
+                 -DBINARY_DIR=${PROJECT_BINARY_DIR}
+                 -DSOURCE_DIR=${PROJECT_SOURCE_DIR}
+                 -DWORK_DIR=${PROJECT_BINARY_DIR}/consumer-test
+                 "-DBUILD_TARGETS=${_qc_consumer_targets_arg}"
+                 -DCXX_COMPILER=${CMAKE_CXX_COMPILER}
+                 -P ${CMAKE_CURRENT_SOURCE_DIR}/consumer/run_consumer.cmake)
+set_tests_properties(consumer.find_package_install_tree PROPERTIES
+                     LABELS consumer TIMEOUT 300 RUN_SERIAL TRUE)
