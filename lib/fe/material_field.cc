@@ -1,0 +1,162 @@
+// SPDX-License-Identifier: Apache-2.0
+// MaterialField: material id -> Material, evaluated at quadrature points.
+#include <quantacal/exceptions.h>
+#include <quantacal/fe/material_field.h>
+#include <quantacal/models/contribution.h>
+#include <quantacal/models/heat_capacity_model.h>
+
+#include <stdexcept>
+
+namespace quantacal::fe {
+
+void PointProperties::resize(std::size_t n) {
+  energy.resize(n);
+  capacity.resize(n);
+  capacity_derivative.resize(n);
+  conductivity.resize(n);
+  conductivity_derivative.resize(n);
+}
+
+template <int dim>
+MaterialField<dim>::MaterialField(
+    std::map<dealii::types::material_id, MaterialPtr> materials) {
+  for (auto& [id, m] : materials) {
+    if (!m)
+      throw std::invalid_argument("quantacal::fe::MaterialField: material id " +
+                                  std::to_string(static_cast<unsigned>(id)) +
+                                  " has no material");
+    entries_[id] = Entry{m, m->basis_factor(Basis::volume)};
+  }
+}
+
+template <int dim>
+bool MaterialField<dim>::has_material(dealii::types::material_id id) const {
+  return entries_.count(id) != 0;
+}
+
+template <int dim>
+const typename MaterialField<dim>::Entry&
+MaterialField<dim>::entry(dealii::types::material_id id) const {
+  const auto it = entries_.find(id);
+  if (it == entries_.end())
+    throw std::out_of_range("quantacal::fe::MaterialField: material id " +
+                            std::to_string(static_cast<unsigned>(id)) +
+                            " has no material");
+  return it->second;
+}
+
+template <int dim>
+const Material& MaterialField<dim>::material(dealii::types::material_id id) const {
+  return *entry(id).material;
+}
+
+template <int dim>
+std::vector<dealii::types::material_id> MaterialField<dim>::material_ids() const {
+  std::vector<dealii::types::material_id> ids;
+  for (const auto& [id, e] : entries_)
+    ids.push_back(id);
+  return ids;
+}
+
+template <int dim>
+void MaterialField<dim>::evaluate(const dealii::CellAccessor<dim, dim>& cell,
+                                  const std::vector<double>& temperatures,
+                                  PointProperties& out) const {
+  evaluate(cell.material_id(), temperatures, out);
+}
+
+template <int dim>
+void MaterialField<dim>::evaluate(dealii::types::material_id id,
+                                  const std::vector<double>& temperatures,
+                                  PointProperties& out) const {
+  const Entry& e = entry(id);
+  const std::size_t n = temperatures.size();
+  out.resize(n);
+  for (std::size_t q = 0; q < n; ++q)
+    e.material->check_temperature(temperatures[q],
+                                  "quantacal::fe::MaterialField::evaluate");
+  // one batch call per cell (the table's fast path)
+  e.material->table().evaluate(temperatures.data(), n, out.energy.data(),
+                               out.capacity.data(), out.capacity_derivative.data());
+  const double f = e.volume_factor;
+  const double offset = e.material->energy_offset();
+  for (std::size_t q = 0; q < n; ++q) {
+    out.energy[q] = f * (out.energy[q] - offset);
+    out.capacity[q] *= f;
+    out.capacity_derivative[q] *= f;
+    const ConductivityValue k = e.material->conductivity(temperatures[q]);
+    out.conductivity[q] = k.value;
+    out.conductivity_derivative[q] = k.derivative;
+  }
+}
+
+template <int dim>
+VectorizedProperties<double> MaterialField<dim>::evaluate(
+    const std::array<dealii::types::material_id, dealii::VectorizedArray<double>::size()>&
+        ids,
+    const dealii::VectorizedArray<double>& temperature) const {
+  VectorizedProperties<double> out;
+  constexpr std::size_t width = dealii::VectorizedArray<double>::size();
+  for (std::size_t l = 0; l < width; ++l) {
+    const Entry& e = entry(ids[l]);
+    const double t = temperature[l];
+    e.material->check_temperature(t, "quantacal::fe::MaterialField::evaluate");
+    const ThermalState s = e.material->table().evaluate(t);
+    const ConductivityValue k = e.material->conductivity(t);
+    out.energy[l] = e.volume_factor * (s.energy - e.material->energy_offset());
+    out.capacity[l] = e.volume_factor * s.capacity;
+    out.capacity_derivative[l] = e.volume_factor * s.capacity_derivative;
+    out.conductivity[l] = k.value;
+    out.conductivity_derivative[l] = k.derivative;
+  }
+  return out;
+}
+
+template <int dim>
+double MaterialField<dim>::energy(dealii::types::material_id id,
+                                  double temperature) const {
+  const Entry& e = entry(id);
+  e.material->check_temperature(temperature, "quantacal::fe::MaterialField::energy");
+  return e.volume_factor *
+         (e.material->table().evaluate(temperature).energy - e.material->energy_offset());
+}
+
+template <int dim>
+double MaterialField<dim>::conductivity(dealii::types::material_id id,
+                                        double temperature) const {
+  const Entry& e = entry(id);
+  return e.material->conductivity(temperature).value;
+}
+
+MaterialPtr make_constant_material(const std::string& name, double density,
+                                   double specific_heat, double conductivity,
+                                   double lower_temperature, double upper_temperature,
+                                   double molar_mass) {
+  if (!(density > 0 && specific_heat > 0 && conductivity > 0 && lower_temperature > 0 &&
+        upper_temperature > lower_temperature && molar_mass > 0))
+    throw std::invalid_argument("quantacal::fe::make_constant_material: " + name +
+                                ": every property must be > 0 and lower < upper");
+  const double molar_capacity = specific_heat * molar_mass; // J/mol/K
+  LowerExtension below;
+  below.kind = LowerExtension::Kind::energy;
+  below.energy = 0.0;
+  auto term = make_tabulated({lower_temperature, upper_temperature},
+                             {molar_capacity, molar_capacity}, below);
+  MaterialData d;
+  d.name = name;
+  d.description = "constant properties (for analytic checks)";
+  d.molar_mass = molar_mass;
+  d.reference_density = density;
+  d.lower_temperature = lower_temperature;
+  d.upper_temperature = upper_temperature;
+  d.reference_temperature = 0.0;
+  d.model = std::make_shared<HeatCapacityModel>(name, std::vector<ContributionPtr>{term});
+  d.conductivity = make_constant_conductivity(conductivity);
+  d.sources = {Source{"all", "constant properties chosen for an analytic check"}};
+  return std::make_shared<const Material>(std::move(d));
+}
+
+template class MaterialField<2>;
+template class MaterialField<3>;
+
+} // namespace quantacal::fe
