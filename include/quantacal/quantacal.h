@@ -13,6 +13,7 @@
 #include <quantacal/models/conductivity.h>
 #include <quantacal/models/contribution.h>
 #include <quantacal/models/heat_capacity_model.h>
+#include <quantacal/models/metal_conductivity.h>
 #include <quantacal/models/thermal_model.h>
 #include <quantacal/models/thermal_state.h>
 #include <quantacal/tables/property_table.h>

@@ -25,7 +25,7 @@ const std::vector<std::string> kTopKeys = {
     "name",        "description",           "molar_mass",      "reference_density",
     "valid_range", "reference_temperature", "table_tolerance", "heat_capacity",
     "dilation",    "conductivity",          "composition",     "sources",
-    "measurements"};
+    "measurements", "fit"};
 
 /** Cards being loaded, outermost first, for cycle reports. */
 struct LoadChain {

@@ -5,12 +5,15 @@
 
 #include "units_detail.h"
 
+#include <quantacal/models/metal_conductivity.h>
+
+#include <array>
 #include <stdexcept>
 
 namespace quantacal::detail {
 namespace {
 
-const std::vector<std::string> kConductivityKinds = {"constant", "table"};
+const std::vector<std::string> kConductivityKinds = {"constant", "table", "metal"};
 
 ConductivityPtr read_constant(CardReader& reader, const YAML::Node& node,
                               const std::string& path) {
@@ -52,6 +55,55 @@ ConductivityPtr read_table(CardReader& reader, const YAML::Node& node,
   }
 }
 
+/** `kind: metal`: residual + Bloch-Grueneisen resistivity and Wiedemann-Franz
+ * (docs/cards.md). */
+ConductivityPtr read_metal(CardReader& reader, const YAML::Node& node,
+                           const std::string& path) {
+  reader.check_keys(node, path,
+                    {"kind", "theta_R", "reference_resistivity", "reference_temperature",
+                     "rrr", "rho_0", "lorenz_number", "phonon_lorenz_number",
+                     "wilson_ratio", "lattice_coefficient", "lattice_umklapp"});
+  const auto dim = [](std::array<int, 6> e) {
+    Dimension d;
+    d.exponents = e;
+    return d;
+  };
+  const Dimension resistivity = dim({1, 3, -3, 0, 0, -2}); // Ohm m
+  const Dimension lorenz = dim({2, 4, -6, -2, 0, -2});     // W Ohm/K^2
+  MetalConductivityParameters p;
+  const auto read = [&](const std::string& key, const Dimension* d, double& target) {
+    const YAML::Node n = reader.optional(node, key);
+    if (!n.IsDefined())
+      return;
+    const std::string kpath = join_path(path, key);
+    target = d ? reader.quantity(n, kpath, *d) : reader.number(n, kpath);
+    reader.record_parameter(n, kpath);
+  };
+  const Dimension temperature = dimension::temperature();
+  const Dimension lattice_a = dim({1, 1, -3, -4, 0, 0}); // W/m/K^3
+  const Dimension lattice_b = dim({-1, -1, 3, 0, 0, 0}); // m/W
+  reader.require(node, path, "theta_R");
+  reader.require(node, path, "reference_resistivity");
+  read("theta_R", &temperature, p.resistive_debye_temperature);
+  read("reference_resistivity", &resistivity, p.reference_resistivity);
+  read("reference_temperature", &temperature, p.reference_temperature);
+  read("rrr", nullptr, p.rrr);
+  read("rho_0", &resistivity, p.residual_resistivity);
+  read("lorenz_number", &lorenz, p.lorenz_number);
+  read("phonon_lorenz_number", &lorenz, p.phonon_lorenz_number);
+  read("wilson_ratio", nullptr, p.wilson_ratio);
+  read("lattice_coefficient", &lattice_a, p.lattice_coefficient);
+  read("lattice_umklapp", &lattice_b, p.lattice_umklapp);
+  if (reader.optional(node, "rrr").IsDefined() ==
+      reader.optional(node, "rho_0").IsDefined())
+    reader.fail(node, path, "", "give exactly one of `rrr` and `rho_0`");
+  try {
+    return make_metal_conductivity(p);
+  } catch (const std::invalid_argument& e) {
+    reader.fail(node, path, "", e.what());
+  }
+}
+
 } // namespace
 
 ConductivityPtr read_conductivity(CardReader& reader, const YAML::Node& node,
@@ -65,6 +117,8 @@ ConductivityPtr read_conductivity(CardReader& reader, const YAML::Node& node,
     return read_constant(reader, node, path);
   if (kind == "table")
     return read_table(reader, node, path, context);
+  if (kind == "metal")
+    return read_metal(reader, node, path);
   std::string list;
   for (const auto& k : kConductivityKinds)
     list += (list.empty() ? "" : ", ") + k;

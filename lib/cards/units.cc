@@ -73,6 +73,7 @@ const std::map<std::string, UnitSymbol>& unit_symbols() {
     family("W", 1.0, dim(1, 2, -3, 0, 0), "umkMG"); // uW mW W kW MW GW
     family("Pa", 1.0, dim(1, -1, -2, 0, 0), "kMG"); // Pa kPa MPa GPa
     family("N", 1.0, dim(1, 1, -2, 0, 0), "k");     // N kN
+    family("Ohm", 1.0, dim(1, 2, -3, 0, 0, -2), "num"); // nOhm uOhm mOhm Ohm
     add("min", 60.0, dim(0, 0, 1, 0, 0));
     add("h", 3600.0, dim(0, 0, 1, 0, 0));
     add("L", 1e-3, dim(0, 3, 0, 0, 0));

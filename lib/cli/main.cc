@@ -7,8 +7,8 @@
 #include <quantacal/version.h>
 
 #include <filesystem>
-#include <iostream>
 #include <ios>
+#include <iostream>
 
 namespace quantacal::cli {
 
@@ -17,7 +17,8 @@ std::map<std::string, Command>& command_registry() {
   return registry;
 }
 
-CommandRegistrar::CommandRegistrar(std::string name, std::string summary, CommandFunction run) {
+CommandRegistrar::CommandRegistrar(std::string name, std::string summary,
+                                   CommandFunction run) {
   auto key = name;
   command_registry()[key] = Command{std::move(name), std::move(summary), std::move(run)};
 }
@@ -55,12 +56,14 @@ namespace {
 void print_help(std::ostream& out) {
   out << "usage: quantacal <command> [options]\n"
          "       quantacal <command> --help\n\n"
-         "Thermal properties from lattice models, for finite-element heat-conduction work.\n\n"
+         "Thermal properties from lattice models, for finite-element heat-conduction "
+         "work.\n\n"
          "commands:\n";
   for (const auto& [name, command] : command_registry())
     out << "  " << name << std::string(name.size() < 13 ? 13 - name.size() : 1, ' ')
         << command.summary << '\n';
-  out << "\nexit codes: 0 success, 1 a check failed, 2 invalid input, 3 numerical failure,\n"
+  out << "\nexit codes: 0 success, 1 a check failed, 2 invalid input, 3 numerical "
+         "failure,\n"
          "            4 input/output failure\n"
          "Results are estimates from models and published data: check them against\n"
          "measurements before relying on them; quench and cryogen work follows local\n"

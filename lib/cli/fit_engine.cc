@@ -1,0 +1,375 @@
+// SPDX-License-Identifier: Apache-2.0
+// `quantacal fit`: free-parameter names and the GSL nonlinear least-squares fit.
+#include "fit_engine.h"
+#include "fit_detail.h"
+
+#include <quantacal/exceptions.h>
+
+#include <gsl/gsl_blas.h>
+#include <gsl/gsl_errno.h>
+#include <gsl/gsl_matrix.h>
+#include <gsl/gsl_multifit_nlinear.h>
+#include <gsl/gsl_vector.h>
+
+#include <cmath>
+#include <map>
+#include <memory>
+#include <sstream>
+#include <stdexcept>
+
+namespace quantacal::fit {
+namespace {
+
+std::string heat_capacity_path(std::size_t i, const std::string& name) {
+  return "heat_capacity[" + std::to_string(i) + "]." + name;
+}
+
+/** A model state: the heat-capacity model and the conductivity. */
+struct ModelState {
+  std::shared_ptr<const HeatCapacityModel> model;
+  ConductivityPtr conductivity;
+};
+
+ModelState apply(const Material& start, const std::vector<FreeParameter>& parameters,
+                 const std::vector<double>& values) {
+  HeatCapacityModel model = start.model();
+  std::shared_ptr<const MetalConductivity> metal;
+  for (std::size_t j = 0; j < parameters.size(); ++j) {
+    const FreeParameter& f = parameters[j];
+    if (f.conductivity) {
+      if (!metal)
+        metal =
+            std::dynamic_pointer_cast<const MetalConductivity>(start.data().conductivity);
+      metal = metal->with_parameter(f.name, values[j]);
+    } else {
+      model = model.with_contribution(
+          f.index, model.contributions()[f.index]->with_parameter(f.name, values[j]));
+    }
+  }
+  ModelState s;
+  s.model = std::make_shared<const HeatCapacityModel>(std::move(model));
+  s.conductivity = metal ? ConductivityPtr(metal) : start.data().conductivity;
+  return s;
+}
+
+/** Model value for one row, in the row's unit. */
+double model_value(const ModelState& s, const DataPoint& p, double molar_mass) {
+  switch (p.kind) {
+  case Observable::capacity: {
+    const double c = s.model->evaluate(p.temperature).capacity;
+    return p.per_mass ? c / molar_mass : c;
+  }
+  case Observable::energy_increment: {
+    const double hi = s.model->evaluate(p.temperature).energy;
+    const double lo =
+        p.from_temperature > 0.0 ? s.model->evaluate(p.from_temperature).energy : 0.0;
+    return p.per_mass ? (hi - lo) / molar_mass : hi - lo;
+  }
+  case Observable::conductivity:
+    return s.conductivity->evaluate(p.temperature).value;
+  }
+  return 0.0;
+}
+
+struct Problem {
+  const Material* start = nullptr;
+  const std::vector<FreeParameter>* parameters = nullptr;
+  std::vector<DataPoint> points;
+  Weighting weighting = Weighting::relative;
+  bool has_sigma = false;
+  std::vector<bool> logarithmic; // per parameter: p = p0 e^q, else p = p0 + q
+  std::string last_error;
+
+  std::vector<double> values(const gsl_vector* q) const {
+    std::vector<double> v(parameters->size());
+    for (std::size_t j = 0; j < v.size(); ++j) {
+      const double p0 = (*parameters)[j].start;
+      const double qj = gsl_vector_get(q, j);
+      v[j] = logarithmic[j] ? p0 * std::exp(qj) : p0 + qj;
+    }
+    return v;
+  }
+
+  double scale(const DataPoint& p) const {
+    const double s = has_sigma ? p.sigma : 1.0;
+    return weighting == Weighting::relative ? std::abs(p.value) * s : s;
+  }
+};
+
+int residual_function(const gsl_vector* q, void* data, gsl_vector* f) {
+  auto* problem = static_cast<Problem*>(data);
+  try {
+    const ModelState s = apply(*problem->start, *problem->parameters, problem->values(q));
+    for (std::size_t i = 0; i < problem->points.size(); ++i) {
+      const DataPoint& p = problem->points[i];
+      const double m = model_value(s, p, problem->start->molar_mass());
+      const double r = (m - p.value) / problem->scale(p);
+      if (!std::isfinite(r))
+        throw std::invalid_argument(
+            "non-finite model value at T = " + format_double(p.temperature) + " K");
+      gsl_vector_set(f, i, r);
+    }
+  } catch (const std::exception& e) {
+    problem->last_error = e.what();
+    return GSL_EDOM;
+  }
+  return GSL_SUCCESS;
+}
+
+} // namespace
+
+std::vector<FreeParameter>
+resolve_free_parameters(const Material& material, const std::vector<std::string>& names) {
+  // All parameters by full path, and bare names with the paths they can mean.
+  std::vector<FreeParameter> all;
+  std::map<std::string, std::vector<std::size_t>> bare;
+  const auto& contributions = material.model().contributions();
+  for (std::size_t i = 0; i < contributions.size(); ++i)
+    for (const Parameter& p : contributions[i]->parameters()) {
+      bare[p.name].push_back(all.size());
+      all.push_back({heat_capacity_path(i, p.name), false, i, p.name, p.unit, p.value});
+    }
+  const auto metal =
+      std::dynamic_pointer_cast<const MetalConductivity>(material.data().conductivity);
+  if (metal)
+    for (const Parameter& p : metal->parameters())
+      all.push_back({"conductivity." + p.name, true, 0, p.name, p.unit, p.value});
+
+  std::vector<std::string> choices;
+  for (const auto& p : all)
+    choices.push_back(p.path);
+  for (const auto& [name, list] : bare)
+    if (list.size() == 1)
+      choices.push_back(name);
+
+  std::vector<FreeParameter> out;
+  for (const std::string& raw : names) {
+    const FreeParameter* found = nullptr;
+    for (const auto& p : all)
+      if (p.path == raw)
+        found = &p;
+    if (!found) {
+      const auto it = bare.find(raw);
+      if (it != bare.end() && it->second.size() == 1) {
+        found = &all[it->second.front()];
+      } else if (it != bare.end()) {
+        std::string list;
+        for (std::size_t k : it->second)
+          list += (list.empty() ? "" : ", ") + all[k].path;
+        throw std::invalid_argument("--free: '" + raw +
+                                    "' is ambiguous in this card; name one of: " + list);
+      }
+    }
+    if (!found) {
+      std::string hint = detail::did_you_mean(raw, choices);
+      if (raw.rfind("conductivity.", 0) == 0 && !metal)
+        hint += " (the card's conductivity is of kind '" +
+                material.data().conductivity->kind() +
+                "', which has no parameters to fit; use kind 'metal')";
+      std::string list;
+      for (const auto& c : choices)
+        list += (list.empty() ? "" : ", ") + c;
+      throw std::invalid_argument("--free: unknown parameter '" + raw + "'" + hint +
+                                  "; this card has: " + list);
+    }
+    for (const auto& o : out)
+      if (o.path == found->path)
+        throw std::invalid_argument("--free: parameter '" + raw + "' given twice (as " +
+                                    o.path + ")");
+    out.push_back(*found);
+  }
+  if (out.empty())
+    throw std::invalid_argument("--free: expected at least one parameter name");
+  return out;
+}
+
+FitResult fit(const Material& start, const DataSet& data,
+              const std::vector<FreeParameter>& parameters, const FitOptions& options) {
+  Problem problem;
+  problem.start = &start;
+  problem.parameters = &parameters;
+  problem.weighting = options.weighting;
+  problem.has_sigma = data.has_sigma;
+  for (const DataPoint& p : data.points) {
+    if (options.from > 0.0 && p.temperature < options.from)
+      continue;
+    if (options.to > 0.0 && p.temperature > options.to)
+      continue;
+    problem.points.push_back(p);
+  }
+  const std::size_t n = problem.points.size();
+  const std::size_t m = parameters.size();
+  if (n <= m)
+    throw std::invalid_argument(
+        data.file + ": " + std::to_string(n) + " data row" + (n == 1 ? "" : "s") +
+        (options.from > 0.0 || options.to > 0.0 ? " in the selected temperature range"
+                                                : "") +
+        " for " + std::to_string(m) + " free parameter" + (m == 1 ? "" : "s") +
+        ": a fit needs more rows than free parameters");
+  bool any_k = false;
+  for (const DataPoint& p : problem.points)
+    any_k = any_k || p.kind == Observable::conductivity;
+  for (const auto& f : parameters)
+    if (f.conductivity &&
+        !std::dynamic_pointer_cast<const MetalConductivity>(start.data().conductivity))
+      throw std::invalid_argument("--free " + f.path +
+                                  ": the card's conductivity is not of kind 'metal'");
+  // Every row must be inside the domain of the start model.
+  {
+    const ModelState s = apply(start, parameters, [&] {
+      std::vector<double> v;
+      for (const auto& f : parameters)
+        v.push_back(f.start);
+      return v;
+    }());
+    for (const DataPoint& p : problem.points) {
+      try {
+        (void)model_value(s, p, start.molar_mass());
+      } catch (const std::exception& e) {
+        throw CardError(data.file, p.line, 1, "T_K", format_double(p.temperature),
+                        std::string("the start card cannot be evaluated here: ") +
+                            e.what());
+      }
+    }
+  }
+  for (const auto& f : parameters)
+    problem.logarithmic.push_back(f.start > 0.0);
+
+  gsl_set_error_handler_off();
+  const std::unique_ptr<gsl_vector, decltype(&gsl_vector_free)> q0(gsl_vector_calloc(m),
+                                                                   gsl_vector_free);
+  const std::unique_ptr<gsl_vector, decltype(&gsl_vector_free)> f0(gsl_vector_alloc(n),
+                                                                   gsl_vector_free);
+  const std::unique_ptr<gsl_vector, decltype(&gsl_vector_free)> f1(gsl_vector_alloc(n),
+                                                                   gsl_vector_free);
+  if (residual_function(q0.get(), &problem, f0.get()) != GSL_SUCCESS)
+    throw NumericalError("quantacal::fit::fit",
+                         "the start card cannot be evaluated: " + problem.last_error);
+  // A parameter that moves no residual cannot be determined by the data.
+  for (std::size_t j = 0; j < m; ++j) {
+    const double h = 1e-6;
+    gsl_vector_set(q0.get(), j, h);
+    const int status = residual_function(q0.get(), &problem, f1.get());
+    gsl_vector_set(q0.get(), j, 0.0);
+    double change = 0.0;
+    if (status == GSL_SUCCESS)
+      for (std::size_t i = 0; i < n; ++i)
+        change = std::max(
+            change, std::abs(gsl_vector_get(f1.get(), i) - gsl_vector_get(f0.get(), i)));
+    if (status == GSL_SUCCESS && change == 0.0)
+      throw std::invalid_argument(
+          "--free " + parameters[j].path +
+          ": this parameter changes none of the selected data rows" +
+          (parameters[j].conductivity && !any_k ? " (it needs k_W_per_m_K rows)" : "") +
+          ", so the data cannot determine it");
+  }
+
+  gsl_multifit_nlinear_fdf fdf;
+  fdf.f = residual_function;
+  fdf.df = nullptr; // finite-difference Jacobian
+  fdf.fvv = nullptr;
+  fdf.n = n;
+  fdf.p = m;
+  fdf.params = &problem;
+  gsl_multifit_nlinear_parameters fdf_parameters =
+      gsl_multifit_nlinear_default_parameters();
+  fdf_parameters.trs = gsl_multifit_nlinear_trs_lm;
+  fdf_parameters.scale = gsl_multifit_nlinear_scale_more;
+  fdf_parameters.fdtype = GSL_MULTIFIT_NLINEAR_CTRDIFF;
+  const std::unique_ptr<gsl_multifit_nlinear_workspace,
+                        decltype(&gsl_multifit_nlinear_free)>
+      w(gsl_multifit_nlinear_alloc(gsl_multifit_nlinear_trust, &fdf_parameters, n, m),
+        gsl_multifit_nlinear_free);
+  if (gsl_multifit_nlinear_init(q0.get(), &fdf, w.get()) != GSL_SUCCESS)
+    throw NumericalError("quantacal::fit::fit",
+                         "cannot start the fit: " + problem.last_error);
+  int info = 0;
+  const int status =
+      gsl_multifit_nlinear_driver(options.max_iterations, options.xtol, options.gtol, 0.0,
+                                  nullptr, nullptr, &info, w.get());
+  const std::size_t iterations = gsl_multifit_nlinear_niter(w.get());
+  if (status != GSL_SUCCESS) {
+    std::string why = status == GSL_EMAXITER
+                          ? "no convergence after " + std::to_string(iterations) +
+                                " iterations (--max-iterations " +
+                                std::to_string(options.max_iterations) + ")"
+                          : std::string("the solver stopped (") + gsl_strerror(status) +
+                                ") after " + std::to_string(iterations) + " iterations";
+    if (status == GSL_EDOM && !problem.last_error.empty())
+      why += ": the model could not be evaluated: " + problem.last_error;
+    throw NumericalError("quantacal fit",
+                         "the fit did not converge: " + why +
+                             "; try other start values in the card, fewer "
+                             "free parameters or a narrower range");
+  }
+
+  const gsl_vector* q = gsl_multifit_nlinear_position(w.get());
+  const gsl_matrix* jacobian = gsl_multifit_nlinear_jac(w.get());
+  const std::unique_ptr<gsl_matrix, decltype(&gsl_matrix_free)> cq(gsl_matrix_alloc(m, m),
+                                                                   gsl_matrix_free);
+  gsl_multifit_nlinear_covar(jacobian, 0.0, cq.get());
+  const gsl_vector* f = gsl_multifit_nlinear_residual(w.get());
+  double chi2 = 0.0;
+  gsl_blas_ddot(f, f, &chi2);
+
+  FitResult r;
+  r.parameters = parameters;
+  r.values = problem.values(q);
+  r.chi_square = chi2;
+  r.degrees_of_freedom = n - m;
+  r.reduced_chi_square = chi2 / static_cast<double>(n - m);
+  r.covariance_scaled = !data.has_sigma;
+  r.iterations = iterations;
+  const double factor = r.covariance_scaled ? r.reduced_chi_square : 1.0;
+  std::vector<double> d(m); // dp/dq
+  for (std::size_t j = 0; j < m; ++j)
+    d[j] = problem.logarithmic[j] ? r.values[j] : 1.0;
+  r.covariance.assign(m, std::vector<double>(m));
+  r.correlation.assign(m, std::vector<double>(m));
+  for (std::size_t a = 0; a < m; ++a)
+    for (std::size_t b = 0; b < m; ++b)
+      r.covariance[a][b] = factor * d[a] * d[b] * gsl_matrix_get(cq.get(), a, b);
+  for (std::size_t a = 0; a < m; ++a)
+    r.standard_errors.push_back(std::sqrt(std::max(0.0, r.covariance[a][a])));
+  for (std::size_t a = 0; a < m; ++a)
+    for (std::size_t b = 0; b < m; ++b) {
+      const double den = r.standard_errors[a] * r.standard_errors[b];
+      r.correlation[a][b] = den > 0.0 ? r.covariance[a][b] / den : (a == b ? 1.0 : 0.0);
+    }
+
+  const ModelState s = apply(start, parameters, r.values);
+  double sum2 = 0.0;
+  r.from = problem.points.front().temperature;
+  r.to = r.from;
+  for (std::size_t i = 0; i < n; ++i) {
+    const DataPoint& p = problem.points[i];
+    ResidualRow row;
+    row.point = p;
+    row.model = model_value(s, p, start.molar_mass());
+    row.residual = row.model - p.value;
+    row.relative = row.residual / p.value;
+    row.weighted = gsl_vector_get(f, i);
+    sum2 += row.relative * row.relative;
+    r.max_relative = std::max(r.max_relative, std::abs(row.relative));
+    r.from = std::min({r.from, p.temperature,
+                       p.kind == Observable::energy_increment && p.from_temperature > 0.0
+                           ? p.from_temperature
+                           : p.temperature});
+    r.to = std::max(r.to, p.temperature);
+    r.residuals.push_back(row);
+  }
+  r.rms_relative = std::sqrt(sum2 / static_cast<double>(n));
+
+  MaterialData md = start.data();
+  md.model = s.model;
+  md.conductivity = s.conductivity;
+  try {
+    r.material = std::make_shared<const Material>(std::move(md));
+  } catch (const std::invalid_argument& e) {
+    throw NumericalError("quantacal fit",
+                         std::string("the fitted card is not valid: ") + e.what());
+  }
+  return r;
+}
+
+} // namespace quantacal::fit

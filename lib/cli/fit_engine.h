@@ -1,0 +1,224 @@
+// SPDX-License-Identifier: Apache-2.0
+/**
+ * @file fit_engine.h
+ * @brief The engine of `quantacal fit`: measured data, free parameters, a
+ *        GSL nonlinear least-squares fit, and the fitted card.
+ *
+ * Why it exists: a card's lattice parameters usually come from one
+ * publication, while the hardware at hand was measured. This engine adjusts
+ * any numeric parameter of a card's contributions (and of a `metal`
+ * conductivity) to measured c_p, energy-increment and k points, with
+ * standard errors and covariance, and writes the card back with the values
+ * replaced and a `fit` record. See docs/fitting.md.
+ *
+ * It is a library (quantacal_fit) linked by the command and by the tests; it
+ * is the only part of quantacal that links GSL.
+ */
+#ifndef QUANTACAL_CLI_FIT_ENGINE_H
+#define QUANTACAL_CLI_FIT_ENGINE_H
+
+#include <quantacal/cards/material.h>
+#include <quantacal/models/metal_conductivity.h>
+
+#include <cstddef>
+#include <memory>
+#include <string>
+#include <vector>
+
+namespace quantacal::fit {
+
+/** What one data row measures. */
+enum class Observable {
+  capacity,         ///< c_p at T
+  energy_increment, ///< e(T) - e(T_from)
+  conductivity      ///< k at T
+};
+
+/** One measured row, SI units, as read from the CSV file. */
+struct DataPoint {
+  Observable kind = Observable::capacity;
+  double temperature = 0.0;      ///< T, K
+  double from_temperature = 0.0; ///< T_from, K (energy increments; 0 = from 0 K)
+  double value = 0.0;    ///< J/kg/K or J/mol/K, J/kg or J/mol, W/m/K (see per_mass)
+  bool per_mass = false; ///< value is per kg (else per mole; k rows: false)
+  double sigma =
+      0.0;      ///< uncertainty from the `sigma` column in the unit of value; 0 = none
+  int line = 0; ///< 1-based line in the file
+};
+
+/** A CSV data file. */
+struct DataSet {
+  std::string file;
+  std::vector<DataPoint> points;
+  bool has_sigma = false; ///< the file has a `sigma` column
+  std::string sha256;     ///< checksum of the file's bytes, hex
+};
+
+/**
+ * Reads a data file (docs/fitting.md, "Data files"): a header row naming the
+ * columns `T_K` and at least one of `cp_J_per_kg_K`, `cp_J_per_mol_K`,
+ * `e_J_per_kg`, `e_J_per_mol` (with `T_from_K`), `k_W_per_m_K`, optionally
+ * `sigma`; lines starting with '#' and blank lines are skipped; each row fills
+ * exactly one value column.
+ * @param path the file
+ * @throws CardError naming file:line:column, the column and the cell for a
+ *         missing or unknown column (with "did you mean"), a non-numeric cell,
+ *         a temperature <= 0 K, a row with no or several values, a sigma <= 0
+ */
+DataSet read_data(const std::string& path);
+
+/** Parses data from text (for tests); @p file is used in messages. */
+DataSet read_data_from_string(const std::string& text, const std::string& file);
+
+/** SHA-256 of @p bytes as 64 lowercase hex digits (FIPS 180-4). */
+std::string sha256_hex(const std::string& bytes);
+
+/** A freed parameter, resolved against the start card. */
+struct FreeParameter {
+  std::string path; ///< full name path: heat_capacity[i].<name> or conductivity.<name>
+  bool conductivity = false; ///< a parameter of the `metal` conductivity
+  std::size_t index = 0;     ///< contribution index (heat capacity)
+  std::string name;          ///< parameter name (card key)
+  std::string unit;          ///< SI unit
+  double start = 0.0;        ///< SI start value
+};
+
+/**
+ * Resolves `--free` names (docs/fitting.md, "Naming parameters"): a bare name
+ * when it is unique among the heat-capacity contributions, else
+ * `heat_capacity[i].<name>`; `conductivity.<name>` for the conductivity.
+ * @throws std::invalid_argument for an unknown name (with "did you mean"),
+ *         an ambiguous bare name (listing the full paths), a duplicate
+ */
+std::vector<FreeParameter> resolve_free_parameters(const Material& material,
+                                                   const std::vector<std::string>& names);
+
+/** How residuals are weighted. */
+enum class Weighting {
+  relative, ///< residual (f - y)/(y s); s = sigma as a fraction, or 1 without sigma
+  absolute  ///< residual (f - y)/s; s = sigma in the row's unit, or 1 without sigma
+};
+
+/** Options of fit(). */
+struct FitOptions {
+  Weighting weighting = Weighting::relative;
+  double from = 0.0; ///< K; rows with T below are left out (0 = all)
+  double to = 0.0;   ///< K; rows with T above are left out (0 = all)
+  std::size_t max_iterations = 200;
+  double xtol = 1e-10; ///< GSL step tolerance (relative)
+  double gtol = 1e-12; ///< GSL gradient tolerance
+};
+
+/** One residual row of the report. */
+struct ResidualRow {
+  DataPoint point;
+  double model = 0.0;    ///< model value in the row's unit
+  double residual = 0.0; ///< model - data, row's unit
+  double relative = 0.0; ///< (model - data)/data
+  double weighted = 0.0; ///< weighted residual entering chi-square
+};
+
+/** The outcome of a fit. */
+struct FitResult {
+  std::vector<FreeParameter> parameters;
+  std::vector<double> values;                   ///< fitted SI values
+  std::vector<double> standard_errors;          ///< SI
+  std::vector<std::vector<double>> covariance;  ///< SI
+  std::vector<std::vector<double>> correlation; ///< dimensionless
+  std::vector<ResidualRow> residuals;
+  double chi_square = 0.0;
+  std::size_t degrees_of_freedom = 0;
+  double reduced_chi_square = 0.0;
+  bool covariance_scaled = false; ///< scaled by reduced chi-square (no sigma column)
+  double rms_relative = 0.0;      ///< rms of relative residuals
+  double max_relative = 0.0;      ///< largest |relative residual|
+  std::size_t iterations = 0;
+  double from = 0.0, to = 0.0; ///< K, temperature range of the rows used
+  MaterialPtr material;        ///< the start material with the fitted values
+};
+
+/**
+ * Fits the free parameters with GSL's trust-region Levenberg-Marquardt
+ * (gsl_multifit_nlinear, geodesic acceleration off, Moré scaling). Parameters
+ * whose start value is > 0 are fitted in log space (they stay positive); the
+ * covariance is mapped back to SI. Without a sigma column the covariance is
+ * scaled by the reduced chi-square.
+ * @throws std::invalid_argument fewer rows than free parameters + 1, a
+ *         parameter the data cannot determine, k rows with a freed conductivity
+ *         that is not `metal`
+ * @throws CardError a row outside the model's domain (file:line)
+ * @throws NumericalError the fit did not converge (with the iteration count)
+ */
+FitResult fit(const Material& start, const DataSet& data,
+              const std::vector<FreeParameter>& parameters, const FitOptions& options);
+
+/**
+ * The fitted card: the start card's text with the freed values replaced (as
+ * quoted quantities with SI units), a `sources` entry for each, and a `fit`
+ * record (an earlier one is replaced).
+ * @param start_text the start card's YAML text
+ * @param start_file its path (for messages)
+ * @param result the fit
+ * @param data the data (file, checksum)
+ * @param weighting as used
+ * @param output_file where the card will be written: `composition` card paths,
+ *        relative to the start card's folder, are rewritten relative to its folder
+ *        ("" = the start card's folder)
+ * @throws CardError if a freed value cannot be located in the start card
+ */
+std::string fitted_card(const std::string& start_text, const std::string& start_file,
+                        const FitResult& result, const DataSet& data, Weighting weighting,
+                        const std::string& output_file = "");
+
+/** The human-readable report (parameters, correlation, statistics, residual table). */
+std::string report(const FitResult& result, const DataSet& data);
+
+/**
+ * Plots data, model and relative residuals to an SVG file with gnuplot.
+ * @return "" on success, else why no plot was written
+ */
+std::string plot(const FitResult& result, const std::string& svg_path);
+
+/** The `fit` record of a fitted card, as needed to propagate its covariance. */
+struct FitRecord {
+  std::vector<FreeParameter> parameters;       ///< resolved against the card
+  std::vector<std::vector<double>> covariance; ///< SI, in the order of parameters
+};
+
+/**
+ * Reads the `fit` record of a fitted card.
+ * @param card_text the card's YAML text
+ * @param file its path (for messages)
+ * @param material the card as loaded
+ * @throws CardError if there is no `fit` record, or it is malformed (a path the
+ *         card does not have, a covariance that is not square, symmetric, with
+ *         non-negative diagonal)
+ */
+FitRecord read_fit_record(const std::string& card_text, const std::string& file,
+                          const Material& material);
+
+/** Values with one-sigma uncertainties at one temperature, on a basis. */
+struct BandRow {
+  double capacity = 0.0;       ///< c_p, J/kg/K (or per mole, per m^3)
+  double capacity_sigma = 0.0; ///< one sigma of c_p, same unit
+  double energy = 0.0;       ///< e relative to the card's reference temperature, J/kg ...
+  double energy_sigma = 0.0; ///< one sigma of e, same unit
+  double conductivity = 0.0; ///< k, W/m/K
+  double conductivity_sigma = 0.0; ///< one sigma of k, W/m/K
+};
+
+/**
+ * Linear propagation of the recorded covariance C: sigma^2 = g^T C g, with g the
+ * gradient of the exact model value with respect to the fitted parameters
+ * (central differences, step 1e-3 standard errors).
+ * @param material the fitted card
+ * @param record its fit record
+ * @param temperature K, inside the valid range
+ * @param basis mass, mole or volume
+ */
+BandRow band(const Material& material, const FitRecord& record, double temperature,
+             Basis basis);
+
+} // namespace quantacal::fit
+
+#endif
