@@ -5,6 +5,7 @@
 
 #include <quantacal/cards/card.h>
 #include <quantacal/exceptions.h>
+#include <quantacal/models/metal_conductivity.h>
 
 #include <algorithm>
 #include <cmath>
@@ -99,6 +100,38 @@ double model_value(const Material& material, const Measurement& m) {
   return std::nan("");
 }
 
+/// Warns (on stderr, exit code unchanged) when a card's metal conductivity model
+/// is used inside the band where the Wiedemann-Franz law is known to be off
+/// (inelastic electron-phonon scattering, about theta_R/20 to theta_R/2; see
+/// docs/theory.md) and the card has no conductivity measurements there.
+void warn_about_wiedemann_franz(const std::string& path, const Material& material,
+                                std::string& err) {
+  const auto* metal =
+      dynamic_cast<const MetalConductivity*>(&material.conductivity_model());
+  if (!metal)
+    return;
+  const double lo =
+      std::max(material.lower_temperature(), metal->intermediate_lower_temperature());
+  const double hi =
+      std::min(material.upper_temperature(), metal->intermediate_upper_temperature());
+  if (lo > hi)
+    return;
+  for (const auto& m : material.data().measurements)
+    if (m.quantity == Measurement::Quantity::conductivity && m.temperature >= lo &&
+        m.temperature <= hi)
+      return;
+  err += "quantacal check: warning: " + path +
+         ": conductivity: the Wiedemann-Franz law is "
+         "known to be off between " +
+         short_number(lo) + " K and " + short_number(hi) +
+         " K (intermediate temperatures) and the card has no conductivity measurements "
+         "there" +
+         (metal->has_inelastic_correction()
+              ? " (the Wilson inelastic factor is used, but is itself fitted)"
+              : "") +
+         "; treat k(T) in that range as an estimate\n";
+}
+
 /// Checks one card, appending its report to @p out and its errors to @p err.
 CardOutcome check_card(const std::string& path, bool quiet, std::string& out,
                        std::string& err) {
@@ -137,6 +170,7 @@ CardOutcome check_card(const std::string& path, bool quiet, std::string& out,
   }
   outcome.valid = true;
   outcome.n_points = rows.size();
+  warn_about_wiedemann_franz(path, *material, err);
 
   const Row* worst = nullptr;
   std::string table;

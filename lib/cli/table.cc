@@ -1,13 +1,16 @@
 // SPDX-License-Identifier: Apache-2.0
 // `quantacal table`: specific heat, stored energy and conductivity of one card as CSV.
 #include "command_registry.h"
+#include "fit_engine.h"
 #include "options.h"
 
 #include <quantacal/cards/card.h>
 #include <quantacal/exceptions.h>
 
 #include <cmath>
+#include <fstream>
 #include <iostream>
+#include <sstream>
 #include <string>
 #include <vector>
 
@@ -19,7 +22,8 @@ constexpr std::size_t max_rows = 1000000;
 
 OptionParser table_parser() {
   OptionParser parser(
-      "table", "CARD [--from K] [--to K] [--step K] [--basis mass|mole|volume] [--exact]",
+      "table",
+      "CARD [--from K] [--to K] [--step K] [--basis mass|mole|volume] [--exact] [--band]",
       "Prints, as CSV on stdout, the specific heat, the stored energy and the thermal\n"
       "conductivity of the material described by CARD, one row per temperature.\n"
       "Rows run from --from to --to in steps of --step; the last row is exactly at\n"
@@ -34,6 +38,13 @@ OptionParser table_parser() {
       "  volume  T_K,cp_J_per_m3_K,e_J_per_m3,k_W_per_m_K  (per m^3 of the reference\n"
       "          configuration: reference density / molar mass times the molar value)\n"
       "\n"
+      "With --band (a card written by `quantacal fit`), each value is followed by its\n"
+      "one-sigma uncertainty propagated linearly from the card's recorded covariance,\n"
+      "in columns named like the value with _sigma after the quantity, e.g.\n"
+      "  T_K,cp_J_per_kg_K,cp_sigma_J_per_kg_K,e_J_per_kg,e_sigma_J_per_kg,\n"
+      "  k_W_per_m_K,k_sigma_W_per_m_K\n"
+      "The band is evaluated on the exact model.\n"
+      "\n"
       "Temperatures are in K; \"300 K\" and \"26.85 degC\" are accepted too.\n"
       "Nothing is printed unless every row can be computed.");
   parser
@@ -43,6 +54,8 @@ OptionParser table_parser() {
       .add_value("basis", "BASIS", "mass (default), mole or volume",
                  {"mass", "mole", "volume"})
       .add_flag("exact", "evaluate the exact model instead of the cached table (slower)")
+      .add_flag("band",
+                "add one-sigma columns from the card's fit record (quantacal fit)")
       .add_epilogue(exit_code_help());
   return parser;
 }
@@ -65,6 +78,23 @@ const char* header_for(Basis basis) {
     break;
   }
   return "T_K,cp_J_per_kg_K,e_J_per_kg,k_W_per_m_K\n";
+}
+
+/// The --band header: each quantity followed by its one-sigma column.
+std::string band_header_for(Basis basis) {
+  const char* per = basis == Basis::mole ? "mol" : basis == Basis::volume ? "m3" : "kg";
+  const std::string p(per);
+  return "T_K,cp_J_per_" + p + "_K,cp_sigma_J_per_" + p + "_K,e_J_per_" + p +
+         ",e_sigma_J_per_" + p + ",k_W_per_m_K,k_sigma_W_per_m_K\n";
+}
+
+std::string read_text(const std::string& path) {
+  std::ifstream in(path, std::ios::binary);
+  if (!in)
+    throw std::ios_base::failure("cannot read " + path);
+  std::ostringstream text;
+  text << in.rdbuf();
+  return text.str();
 }
 
 std::string range_text(const Material& material) {
@@ -129,6 +159,25 @@ int run_table(const std::vector<std::string>& args) {
                      format_double(to) + " K)");
 
   // The whole output is built in memory and written only when every row succeeded.
+  if (options.has("band")) {
+    const std::string& path = options.positional[0];
+    const fit::FitRecord record = fit::read_fit_record(read_text(path), path, *material);
+    std::string out = band_header_for(basis);
+    for (const double t : row_temperatures(from, to, step)) {
+      const fit::BandRow row = fit::band(*material, record, t, basis);
+      for (const double v : {t, row.capacity, row.capacity_sigma, row.energy,
+                             row.energy_sigma, row.conductivity}) {
+        out += format_double(v);
+        out += ',';
+      }
+      out += format_double(row.conductivity_sigma);
+      out += '\n';
+    }
+    std::cout << out << std::flush;
+    if (!std::cout)
+      throw std::ios_base::failure("could not write the table to stdout");
+    return ok;
+  }
   std::string out = header_for(basis);
   for (const double t : row_temperatures(from, to, step)) {
     const ThermalState state =
