@@ -161,6 +161,7 @@ std::string summary_yaml(const CaseDescription& d, const RunResult& r) {
     << "\n  largest_step_s: " << number(r.steps.largest_step) << '\n';
   o << "wall_time_s:\n  setup: " << number(r.timings.setup)
     << "\n  assembly: " << number(r.timings.assembly)
+    << "\n  material_evaluation: " << number(r.timings.material_evaluation)
     << "\n  linear_solve: " << number(r.timings.linear_solve)
     << "\n  output: " << number(r.timings.output)
     << "\n  total: " << number(r.timings.total) << '\n';
@@ -213,7 +214,7 @@ std::string plot_cooling_curves(const std::string& folder, const RunResult& r,
   std::replace(safe_title.begin(), safe_title.end(), '"', '\'');
   gp << "# gnuplot script written by quantacal run; rerun with: gnuplot "
         "cooling_curves.gp\n"
-     << "set terminal svg size 900,600 dynamic enhanced font 'sans,12'\n"
+     << "set terminal svg size 900,600 dynamic noenhanced font 'sans,12'\n"
      << "set output 'cooling_curves.svg.tmp'\n"
      << "set datafile separator ','\n"
      << "set key autotitle columnhead\n"
