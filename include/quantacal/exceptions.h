@@ -28,7 +28,8 @@ namespace quantacal {
 /**
  * A malformed or non-physical input file. The message has the shape of a
  * compiler diagnostic:
- * `materials/copper.yaml:14:12: heat_capacity[0].theta = "-343 K": expected a temperature > 0 K`
+ * `materials/copper.yaml:14:12: heat_capacity[0].theta = "-343 K": expected a temperature
+ * > 0 K`
  */
 class CardError : public std::runtime_error {
 public:
@@ -72,8 +73,8 @@ public:
    * @param value the offending value in SI units (may be NaN or inf)
    * @param unit the unit of @p value, e.g. "K"
    */
-  RangeError(std::string function, std::string subject, std::string condition, double value,
-             std::string unit = "K");
+  RangeError(std::string function, std::string subject, std::string condition,
+             double value, std::string unit = "K");
 
   const std::string& function() const noexcept { return function_; }
   const std::string& subject() const noexcept { return subject_; }
@@ -87,7 +88,8 @@ private:
   double value_;
 };
 
-/** A computation that did not reach its goal (no bracket, no convergence, tolerance missed). */
+/** A computation that did not reach its goal (no bracket, no convergence, tolerance
+ * missed). */
 class NumericalError : public std::runtime_error {
 public:
   /**

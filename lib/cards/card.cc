@@ -21,11 +21,20 @@ namespace {
 
 namespace fs = std::filesystem;
 
-const std::vector<std::string> kTopKeys = {
-    "name",        "description",           "molar_mass",      "reference_density",
-    "valid_range", "reference_temperature", "table_tolerance", "heat_capacity",
-    "dilation",    "conductivity",          "composition",     "sources",
-    "measurements", "fit"};
+const std::vector<std::string> kTopKeys = {"name",
+                                           "description",
+                                           "molar_mass",
+                                           "reference_density",
+                                           "valid_range",
+                                           "reference_temperature",
+                                           "table_tolerance",
+                                           "heat_capacity",
+                                           "dilation",
+                                           "conductivity",
+                                           "composition",
+                                           "sources",
+                                           "measurements",
+                                           "fit"};
 
 /** Cards being loaded, outermost first, for cycle reports. */
 struct LoadChain {

@@ -64,15 +64,15 @@ const std::map<std::string, UnitSymbol>& unit_symbols() {
       for (char p : prefixes)
         add(std::string(1, p) + name, scale * prefix.at(p), d);
     };
-    family("m", 1.0, dim(0, 1, 0, 0, 0), "numck");  // nm um mm cm km
-    family("g", 1e-3, dim(1, 0, 0, 0, 0), "umk");   // ug mg g kg
-    family("s", 1.0, dim(0, 0, 1, 0, 0), "num");    // ns us ms s
-    family("K", 1.0, dim(0, 0, 0, 1, 0), "m");      // mK K
-    family("mol", 1.0, dim(0, 0, 0, 0, 1), "mk");   // mmol mol kmol
-    family("J", 1.0, dim(1, 2, -2, 0, 0), "umkMG"); // uJ mJ J kJ MJ GJ
-    family("W", 1.0, dim(1, 2, -3, 0, 0), "umkMG"); // uW mW W kW MW GW
-    family("Pa", 1.0, dim(1, -1, -2, 0, 0), "kMG"); // Pa kPa MPa GPa
-    family("N", 1.0, dim(1, 1, -2, 0, 0), "k");     // N kN
+    family("m", 1.0, dim(0, 1, 0, 0, 0), "numck");      // nm um mm cm km
+    family("g", 1e-3, dim(1, 0, 0, 0, 0), "umk");       // ug mg g kg
+    family("s", 1.0, dim(0, 0, 1, 0, 0), "num");        // ns us ms s
+    family("K", 1.0, dim(0, 0, 0, 1, 0), "m");          // mK K
+    family("mol", 1.0, dim(0, 0, 0, 0, 1), "mk");       // mmol mol kmol
+    family("J", 1.0, dim(1, 2, -2, 0, 0), "umkMG");     // uJ mJ J kJ MJ GJ
+    family("W", 1.0, dim(1, 2, -3, 0, 0), "umkMG");     // uW mW W kW MW GW
+    family("Pa", 1.0, dim(1, -1, -2, 0, 0), "kMG");     // Pa kPa MPa GPa
+    family("N", 1.0, dim(1, 1, -2, 0, 0), "k");         // N kN
     family("Ohm", 1.0, dim(1, 2, -3, 0, 0, -2), "num"); // nOhm uOhm mOhm Ohm
     add("min", 60.0, dim(0, 0, 1, 0, 0));
     add("h", 3600.0, dim(0, 0, 1, 0, 0));

@@ -16,7 +16,13 @@ namespace quantacal::cli {
  * 2 invalid input (bad card, bad case, bad option); 3 numerical failure
  * (no convergence, diverging solve); 4 input/output failure.
  */
-enum ExitCode : int { ok = 0, check_failed = 1, invalid_input = 2, numerical = 3, io = 4 };
+enum ExitCode : int {
+  ok = 0,
+  check_failed = 1,
+  invalid_input = 2,
+  numerical = 3,
+  io = 4
+};
 
 /** A sub-command: gets its arguments after the sub-command name. */
 using CommandFunction = std::function<int(const std::vector<std::string>& args)>;

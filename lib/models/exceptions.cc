@@ -8,8 +8,9 @@
 namespace quantacal {
 namespace {
 
-std::string card_message(const std::string& file, int line, int column, const std::string& field,
-                         const std::string& value, const std::string& expected) {
+std::string card_message(const std::string& file, int line, int column,
+                         const std::string& field, const std::string& value,
+                         const std::string& expected) {
   std::string m = file.empty() ? std::string("<card>") : file;
   if (line > 0) {
     m += ':' + std::to_string(line);
@@ -39,15 +40,16 @@ std::string format_double(double value) {
   return std::string(buffer, result.ptr);
 }
 
-CardError::CardError(std::string file, int line, int column, std::string field, std::string value,
-                     std::string expected)
+CardError::CardError(std::string file, int line, int column, std::string field,
+                     std::string value, std::string expected)
     : std::runtime_error(card_message(file, line, column, field, value, expected)),
       file_(std::move(file)), line_(line), column_(column), field_(std::move(field)),
       value_(std::move(value)), expected_(std::move(expected)) {}
 
 RangeError::RangeError(std::string function, std::string subject, std::string condition,
                        double value, std::string unit)
-    : std::runtime_error(function + ": " + (subject.empty() ? std::string() : subject + ": ") +
+    : std::runtime_error(function + ": " +
+                         (subject.empty() ? std::string() : subject + ": ") +
                          "requires " + condition + " but got " + format_double(value) +
                          (unit.empty() ? std::string() : " " + unit)),
       function_(std::move(function)), subject_(std::move(subject)),

@@ -27,35 +27,36 @@ enum class Basis {
 /** A published source of one or more parameters of a card. */
 struct Source {
   std::string parameter; ///< field path(s) it supports, e.g. "heat_capacity[0].theta"
-  std::string citation;  ///< "Kittel, Introduction to Solid State Physics", "from memory", ...
+  std::string
+      citation; ///< "Kittel, Introduction to Solid State Physics", "from memory", ...
 };
 
 /** A published measured point a card is checked against (quantacal check). */
 struct Measurement {
   enum class Quantity { specific_heat, stored_energy, conductivity };
   Quantity quantity = Quantity::specific_heat;
-  double temperature = 0.0;    ///< K
-  double value = 0.0;          ///< SI, molar basis for specific heat and energy, W/m/K for k
-  double tolerance = 0.0;      ///< relative tolerance, e.g. 0.03
-  std::string source;          ///< citation
-  int line = 0;                ///< line in the card, for messages
+  double temperature = 0.0; ///< K
+  double value = 0.0;       ///< SI, molar basis for specific heat and energy, W/m/K for k
+  double tolerance = 0.0;   ///< relative tolerance, e.g. 0.03
+  std::string source;       ///< citation
+  int line = 0;             ///< line in the card, for messages
 };
 
 /** Everything a Material is made of; filled by the card loader or by hand. */
 struct MaterialData {
   std::string name;
   std::string description;
-  std::string file;                 ///< card path ("" if built in code)
-  double molar_mass = 0.0;          ///< kg/mol (> 0)
-  double reference_density = 0.0;  ///< kg/m^3 (> 0)
-  double lower_temperature = 0.0;  ///< K, valid range (> 0)
-  double upper_temperature = 0.0;  ///< K, valid range
+  std::string file;                   ///< card path ("" if built in code)
+  double molar_mass = 0.0;            ///< kg/mol (> 0)
+  double reference_density = 0.0;     ///< kg/m^3 (> 0)
+  double lower_temperature = 0.0;     ///< K, valid range (> 0)
+  double upper_temperature = 0.0;     ///< K, valid range
   double reference_temperature = 0.0; ///< K; stored energy is zero here (0 = at 0 K)
   std::shared_ptr<const HeatCapacityModel> model;
   ConductivityPtr conductivity;
   std::vector<Source> sources;
   std::vector<Measurement> measurements;
-  TableOptions table_options;       ///< tolerance etc.; range is the valid range
+  TableOptions table_options; ///< tolerance etc.; range is the valid range
 };
 
 /**
@@ -73,12 +74,16 @@ public:
 
   const std::string& name() const noexcept { return data_.name; }
   const MaterialData& data() const noexcept { return data_; }
-  double molar_mass() const noexcept { return data_.molar_mass; }               ///< kg/mol
-  double reference_density() const noexcept { return data_.reference_density; } ///< kg/m^3
+  double molar_mass() const noexcept { return data_.molar_mass; } ///< kg/mol
+  double reference_density() const noexcept {
+    return data_.reference_density;
+  } ///< kg/m^3
   double lower_temperature() const noexcept { return data_.lower_temperature; } ///< K
   double upper_temperature() const noexcept { return data_.upper_temperature; } ///< K
   const HeatCapacityModel& model() const noexcept { return *data_.model; }
-  const ConductivityModel& conductivity_model() const noexcept { return *data_.conductivity; }
+  const ConductivityModel& conductivity_model() const noexcept {
+    return *data_.conductivity;
+  }
 
   /** Factor from molar values to @p basis: 1/M, 1 or rho/M. */
   double basis_factor(Basis basis) const noexcept;
@@ -89,7 +94,8 @@ public:
   TablePtr shared_table() const;
 
   /**
-   * Thermal state from the table on @p basis, energy relative to the reference temperature.
+   * Thermal state from the table on @p basis, energy relative to the reference
+   * temperature.
    * @param temperature K, inside the valid range
    * @throws RangeError outside the valid range, NaN or inf
    */

@@ -26,23 +26,23 @@ struct Dimension {
 
 namespace dimension {
 Dimension dimensionless();
-Dimension temperature();         ///< K
-Dimension molar_capacity();      ///< J/mol/K
-Dimension specific_capacity();   ///< J/kg/K
-Dimension molar_energy();        ///< J/mol
-Dimension specific_energy();     ///< J/kg
-Dimension sommerfeld();          ///< J/mol/K^2
-Dimension molar_mass();          ///< kg/mol
-Dimension density();             ///< kg/m^3
-Dimension conductivity();        ///< W/m/K
-Dimension pressure();            ///< Pa
-Dimension molar_volume();        ///< m^3/mol
-Dimension inverse_molar_energy(); ///< mol/J
+Dimension temperature();               ///< K
+Dimension molar_capacity();            ///< J/mol/K
+Dimension specific_capacity();         ///< J/kg/K
+Dimension molar_energy();              ///< J/mol
+Dimension specific_energy();           ///< J/kg
+Dimension sommerfeld();                ///< J/mol/K^2
+Dimension molar_mass();                ///< kg/mol
+Dimension density();                   ///< kg/m^3
+Dimension conductivity();              ///< W/m/K
+Dimension pressure();                  ///< Pa
+Dimension molar_volume();              ///< m^3/mol
+Dimension inverse_molar_energy();      ///< mol/J
 Dimension heat_transfer_coefficient(); ///< W/m^2/K
-Dimension heat_flux();           ///< W/m^2
-Dimension power_density();       ///< W/m^3
-Dimension time();                ///< s
-Dimension length();              ///< m
+Dimension heat_flux();                 ///< W/m^2
+Dimension power_density();             ///< W/m^3
+Dimension time();                      ///< s
+Dimension length();                    ///< m
 } // namespace dimension
 
 /** A parsed quantity: SI value and its dimension. */

@@ -24,9 +24,9 @@ namespace quantacal {
 
 /** A named numeric parameter of a contribution, in SI units. */
 struct Parameter {
-  /// name within the contribution, the same as its card key: "theta_D", "theta_E", "modes",
-  /// "gamma", "gap", "degeneracy_ratio", "centres", "temperature", "latent_heat", "width",
-  /// "A".."E" (shomate), "mole_fraction" (scaled)
+  /// name within the contribution, the same as its card key: "theta_D", "theta_E",
+  /// "modes", "gamma", "gap", "degeneracy_ratio", "centres", "temperature",
+  /// "latent_heat", "width", "A".."E" (shomate), "mole_fraction" (scaled)
   std::string name;
   double value;     ///< SI value
   std::string unit; ///< SI unit of @p value, e.g. "K", "J/mol/K^2", "1"
@@ -49,7 +49,9 @@ public:
   /** Lowest temperature of definition, K; 0 means defined down to 0 K. */
   virtual double lower_temperature() const { return 0.0; }
   /** Highest temperature of definition, K. */
-  virtual double upper_temperature() const { return std::numeric_limits<double>::infinity(); }
+  virtual double upper_temperature() const {
+    return std::numeric_limits<double>::infinity();
+  }
 
   /** Non-smooth points or narrow peaks, K (see ThermalModel::breakpoints). */
   virtual std::vector<double> breakpoints() const { return {}; }
@@ -119,7 +121,8 @@ ContributionPtr make_transition(double temperature, double latent_heat, double w
 /** How a tabulated or Shomate term gets its energy below its first temperature. */
 struct LowerExtension {
   enum class Kind {
-    debye_t3, ///< C = C(T1) (T/T1)^3 from 0 to T1, so U(T1) = C(T1) T1 / 4; C defined from 0
+    debye_t3, ///< C = C(T1) (T/T1)^3 from 0 to T1, so U(T1) = C(T1) T1 / 4; C defined
+              ///< from 0
     energy    ///< U(T1) given (J/mol); the term, and so the model, is undefined below T1
   };
   Kind kind = Kind::debye_t3;
@@ -135,8 +138,8 @@ struct LowerExtension {
  * @param capacities C at those points, J/mol/K (>= 0)
  * @param below how the energy below the first point is obtained
  */
-ContributionPtr make_tabulated(std::vector<double> temperatures, std::vector<double> capacities,
-                               LowerExtension below);
+ContributionPtr make_tabulated(std::vector<double> temperatures,
+                               std::vector<double> capacities, LowerExtension below);
 
 /**
  * Shomate polynomial (NIST-JANAF form), t = T/1000:

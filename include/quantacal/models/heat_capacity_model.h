@@ -30,15 +30,17 @@ namespace quantacal {
 struct Dilation {
   enum class Kind { nernst_lindemann, grueneisen };
   Kind kind = Kind::nernst_lindemann;
-  double coefficient = 0.0; ///< A, mol/J (Nernst-Lindemann) or derived from the three below
-  double grueneisen = 0.0;  ///< gamma_G, dimensionless (Kind::grueneisen)
+  double coefficient =
+      0.0; ///< A, mol/J (Nernst-Lindemann) or derived from the three below
+  double grueneisen = 0.0;   ///< gamma_G, dimensionless (Kind::grueneisen)
   double bulk_modulus = 0.0; ///< K_T, Pa (Kind::grueneisen)
   double molar_volume = 0.0; ///< V_m, m^3/mol (Kind::grueneisen)
 
   /** A in mol/J for either kind. */
   double a() const noexcept {
-    return kind == Kind::nernst_lindemann ? coefficient
-                                          : grueneisen * grueneisen / (bulk_modulus * molar_volume);
+    return kind == Kind::nernst_lindemann
+               ? coefficient
+               : grueneisen * grueneisen / (bulk_modulus * molar_volume);
   }
 };
 
@@ -69,11 +71,14 @@ public:
   std::vector<double> breakpoints() const override;
   std::string name() const override { return name_; }
 
-  const std::vector<ContributionPtr>& contributions() const noexcept { return contributions_; }
+  const std::vector<ContributionPtr>& contributions() const noexcept {
+    return contributions_;
+  }
   const std::optional<Dilation>& dilation() const noexcept { return dilation_; }
 
   /** The same model with one term replaced (for fitting). */
-  HeatCapacityModel with_contribution(std::size_t index, ContributionPtr replacement) const;
+  HeatCapacityModel with_contribution(std::size_t index,
+                                      ContributionPtr replacement) const;
 
 private:
   std::string name_;

@@ -18,8 +18,8 @@ namespace quantacal {
  * card names another reference.
  */
 struct ThermalState {
-  double energy = 0.0;              ///< stored energy U(T), J/mol (or J/kg, J/m^3 on a basis)
-  double capacity = 0.0;            ///< heat capacity C(T) = dU/dT, J/mol/K
+  double energy = 0.0;   ///< stored energy U(T), J/mol (or J/kg, J/m^3 on a basis)
+  double capacity = 0.0; ///< heat capacity C(T) = dU/dT, J/mol/K
   double capacity_derivative = 0.0; ///< dC/dT, J/mol/K^2
 
   ThermalState& operator+=(const ThermalState& o) noexcept {
@@ -36,8 +36,12 @@ struct ThermalState {
   }
 };
 
-inline ThermalState operator+(ThermalState a, const ThermalState& b) noexcept { return a += b; }
-inline ThermalState operator*(double f, ThermalState a) noexcept { return a *= f; }
+inline ThermalState operator+(ThermalState a, const ThermalState& b) noexcept {
+  return a += b;
+}
+inline ThermalState operator*(double f, ThermalState a) noexcept {
+  return a *= f;
+}
 
 /** The molar gas constant R, J/mol/K (CODATA 2018, exact since the 2019 SI). */
 inline constexpr double gas_constant = 8.314462618;
