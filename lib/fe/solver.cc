@@ -624,6 +624,7 @@ HeatEngine<dim>::assemble(const Vec& T_ghost, double time, double beta_h,
   Totals local;
   bool failed = false;
   std::string message;
+  double material_seconds = 0.0; // this rank's time inside MaterialField::evaluate
 
   for (const auto& cell : dof_.active_cell_iterators()) {
     if (!cell->is_locally_owned())
@@ -657,8 +658,10 @@ HeatEngine<dim>::assemble(const Vec& T_ghost, double time, double beta_h,
         if (!(Tm[q] > 0.0) || !std::isfinite(Tm[q]))
           throw RangeError("quantacal::fe::run_case", "temperature field",
                            "a positive, finite temperature", Tm[q]);
+      const auto t_mat = Clock::now();
       field_.evaluate(cell->material_id(), Tm, props_m);
       field_.evaluate(cell->material_id(), T, props);
+      material_seconds += seconds_since(t_mat);
     } catch (const std::exception& e) {
       if (!failed)
         message = e.what();
@@ -788,6 +791,7 @@ HeatEngine<dim>::assemble(const Vec& T_ghost, double time, double beta_h,
     if (with_matrix)
       constraints_.distribute_local_to_global(cell_matrix, dofs, matrix_);
   }
+  result_.timings.material_evaluation += material_seconds;
   mass_vec_.compress(VectorOperation::add);
   raw_mass_vec_.compress(VectorOperation::add);
   flux_vec_.compress(VectorOperation::add);

@@ -266,6 +266,7 @@ struct StepStatistics {
 struct PhaseTimes {
   double setup = 0.0;
   double assembly = 0.0;
+  double material_evaluation = 0.0; ///< part of `assembly`: MaterialField calls
   double linear_solve = 0.0;
   double output = 0.0;
   double total = 0.0;
