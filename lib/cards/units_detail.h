@@ -4,6 +4,7 @@
 #define QUANTACAL_LIB_CARDS_UNITS_DETAIL_H
 
 #include <quantacal/cards/units.h>
+#include <quantacal/detail/text.h>
 
 #include <cstddef>
 #include <string>
@@ -13,13 +14,6 @@ namespace quantacal::detail {
 
 /** "a temperature (K, mK or degC)", "a molar energy (e.g. J/mol)", ... */
 std::string dimension_description(const Dimension& d);
-
-/** Levenshtein distance (insertions, deletions, substitutions). */
-std::size_t edit_distance(const std::string& a, const std::string& b);
-
-/** " (did you mean 'x'?)" for the nearest candidate within 2 edits, else "". */
-std::string did_you_mean(const std::string& word,
-                         const std::vector<std::string>& candidates);
 
 /** A whole string as a finite number, locale-free; std::invalid_argument otherwise. */
 double parse_number(const std::string& text);

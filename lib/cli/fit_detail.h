@@ -3,6 +3,8 @@
 #ifndef QUANTACAL_CLI_FIT_DETAIL_H
 #define QUANTACAL_CLI_FIT_DETAIL_H
 
+#include <quantacal/detail/text.h>
+
 #include <algorithm>
 #include <cstddef>
 #include <optional>
@@ -11,8 +13,8 @@
 
 namespace quantacal::fit::detail {
 
-/** Levenshtein distance. */
-std::size_t edit_distance(const std::string& a, const std::string& b);
+/** Levenshtein distance (the core library's). */
+using quantacal::detail::edit_distance;
 
 /** " (did you mean 'x'?)" for the closest choice, or "" when none is close. */
 std::string did_you_mean(const std::string& word,

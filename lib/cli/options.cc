@@ -65,23 +65,6 @@ double parse_temperature_argument(const std::string& text, const std::string& wh
                    ": expected a temperature (a number in K, or with unit K or degC)");
 }
 
-std::size_t edit_distance(const std::string& a, const std::string& b) {
-  std::vector<std::size_t> row(b.size() + 1);
-  for (std::size_t j = 0; j <= b.size(); ++j)
-    row[j] = j;
-  for (std::size_t i = 1; i <= a.size(); ++i) {
-    std::size_t diagonal = row[0];
-    row[0] = i;
-    for (std::size_t j = 1; j <= b.size(); ++j) {
-      const std::size_t above = row[j];
-      row[j] = std::min(
-          {row[j] + 1, row[j - 1] + 1, diagonal + (a[i - 1] == b[j - 1] ? 0 : 1)});
-      diagonal = above;
-    }
-  }
-  return row[b.size()];
-}
-
 std::string exit_code_help() {
   return "exit codes: 0 success, 1 a check failed, 2 invalid input (card, option,\n"
          "            argument), 3 numerical failure, 4 input/output failure\n";

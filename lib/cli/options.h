@@ -27,6 +27,8 @@
 #ifndef QUANTACAL_CLI_OPTIONS_H
 #define QUANTACAL_CLI_OPTIONS_H
 
+#include <quantacal/detail/text.h>
+
 #include <map>
 #include <optional>
 #include <stdexcept>
@@ -167,10 +169,8 @@ std::optional<double> parse_number(const std::string& text);
  */
 double parse_temperature_argument(const std::string& text, const std::string& what);
 
-/**
- * The edit distance between two strings (Levenshtein), for "did you mean".
- */
-std::size_t edit_distance(const std::string& a, const std::string& b);
+/// The edit distance between two strings (Levenshtein), for "did you mean".
+using quantacal::detail::edit_distance;
 
 /** The exit-code paragraph shared by the sub-commands' --help. */
 std::string exit_code_help();
