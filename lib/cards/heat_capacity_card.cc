@@ -48,6 +48,16 @@ double positive_number(CardReader& reader, const YAML::Node& node,
   return v;
 }
 
+/// The quantity at @p n (path @p p) in @p dim, which must be > 0 (else @p expected).
+double positive_quantity(CardReader& reader, const YAML::Node& n, const std::string& p,
+                         const Dimension& dim, const std::string& expected) {
+  const double v = reader.quantity(n, p, dim);
+  if (!(v > 0.0))
+    reader.fail(n, p, reader.text(n, p), expected);
+  reader.record_parameter(n, p);
+  return v;
+}
+
 /** `below: debye-t3` (default) or `below: "<energy at the first temperature>"`. */
 LowerExtension read_below(CardReader& reader, const YAML::Node& node,
                           const std::string& path, const CardBasics& basics) {
@@ -220,13 +230,11 @@ Dilation read_dilation(CardReader& reader, const YAML::Node& node,
         reader.fail(node[key], join_path(path, key), "",
                     "give either `nernst_lindemann` or `grueneisen`, `bulk_modulus` and "
                     "`molar_volume`, not both");
-    const std::string p = join_path(path, "nernst_lindemann");
     d.kind = Dilation::Kind::nernst_lindemann;
-    d.coefficient = reader.quantity(nl, p, dimension::inverse_molar_energy());
-    if (!(d.coefficient > 0.0))
-      reader.fail(nl, p, reader.text(nl, p),
-                  "expected a Nernst-Lindemann coefficient > 0 mol/J");
-    reader.record_parameter(nl, p);
+    d.coefficient =
+        positive_quantity(reader, nl, join_path(path, "nernst_lindemann"),
+                          dimension::inverse_molar_energy(),
+                          "expected a Nernst-Lindemann coefficient > 0 mol/J");
     return d;
   }
   if (!gg.IsDefined())
@@ -234,23 +242,14 @@ Dilation read_dilation(CardReader& reader, const YAML::Node& node,
                 "expected `nernst_lindemann`, or `grueneisen` with `bulk_modulus` and "
                 "`molar_volume`");
   d.kind = Dilation::Kind::grueneisen;
-  const std::string gpath = join_path(path, "grueneisen");
-  d.grueneisen = reader.number(gg, gpath);
-  if (!(d.grueneisen > 0.0))
-    reader.fail(gg, gpath, reader.text(gg, gpath), "expected a Grueneisen parameter > 0");
-  reader.record_parameter(gg, gpath);
-  const std::string kpath = join_path(path, "bulk_modulus");
-  const YAML::Node k = reader.require(node, path, "bulk_modulus");
-  d.bulk_modulus = reader.quantity(k, kpath, dimension::pressure());
-  if (!(d.bulk_modulus > 0.0))
-    reader.fail(k, kpath, reader.text(k, kpath), "expected a bulk modulus > 0 Pa");
-  reader.record_parameter(k, kpath);
-  const std::string vpath = join_path(path, "molar_volume");
-  const YAML::Node v = reader.require(node, path, "molar_volume");
-  d.molar_volume = reader.quantity(v, vpath, dimension::molar_volume());
-  if (!(d.molar_volume > 0.0))
-    reader.fail(v, vpath, reader.text(v, vpath), "expected a molar volume > 0 m^3/mol");
-  reader.record_parameter(v, vpath);
+  d.grueneisen =
+      positive_number(reader, node, path, "grueneisen", "a Grueneisen parameter");
+  d.bulk_modulus = positive_quantity(
+      reader, reader.require(node, path, "bulk_modulus"), join_path(path, "bulk_modulus"),
+      dimension::pressure(), "expected a bulk modulus > 0 Pa");
+  d.molar_volume = positive_quantity(
+      reader, reader.require(node, path, "molar_volume"), join_path(path, "molar_volume"),
+      dimension::molar_volume(), "expected a molar volume > 0 m^3/mol");
   return d;
 }
 
