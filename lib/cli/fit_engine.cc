@@ -183,6 +183,42 @@ resolve_free_parameters(const Material& material, const std::vector<std::string>
   return out;
 }
 
+namespace {
+/**
+ * A freed electronic gamma is set by the lowest capacity rows; where the
+ * electrons carry only a small share of c_p there, a lattice-shape error of a
+ * few per cent (Debye and Einstein terms miss the dispersion of real phonons)
+ * moves gamma by tens of per cent while the standard error stays small.
+ */
+void add_gamma_warnings(FitResult& r, const std::vector<DataPoint>& points) {
+  double t_low = 0.0;
+  for (const DataPoint& p : points)
+    if (p.kind == Observable::capacity && (t_low == 0.0 || p.temperature < t_low))
+      t_low = p.temperature;
+  if (t_low == 0.0)
+    return;
+  for (std::size_t j = 0; j < r.parameters.size(); ++j) {
+    const FreeParameter& f = r.parameters[j];
+    if (f.conductivity || f.name != "gamma")
+      continue;
+    const double c = r.material->thermal(t_low, Basis::mole).capacity;
+    const double share = c > 0.0 ? r.values[j] * t_low / c : 0.0;
+    if (share >= gamma_share_threshold)
+      continue;
+    std::ostringstream w;
+    w.precision(3);
+    w << f.path << " is poorly determined by these data: at the lowest c_p row (" << t_low
+      << " K) the electrons carry only " << 100.0 * share
+      << " % of c_p, so a lattice-shape error of 1 % there moves gamma by about "
+      << (1.0 - share) / std::max(share, 1e-6) << " %, more than its standard error "
+      << "suggests. Add rows at lower temperature (electrons carrying at least "
+      << 100.0 * gamma_share_threshold
+      << " % of c_p) or fix gamma at a published value; see docs/fitting.md.";
+    r.warnings.push_back(w.str());
+  }
+}
+} // namespace
+
 FitResult fit(const Material& start, const DataSet& data,
               const std::vector<FreeParameter>& parameters, const FitOptions& options) {
   Problem problem;
@@ -224,6 +260,11 @@ FitResult fit(const Material& start, const DataSet& data,
     }());
     for (const DataPoint& p : problem.points) {
       try {
+        // Rows outside the card's valid_range would fit a model the card does not
+        // stand behind (and its table cannot serve): widen the range instead.
+        start.check_temperature(p.temperature, "the card's valid_range");
+        if (p.kind == Observable::energy_increment && p.from_temperature > 0.0)
+          start.check_temperature(p.from_temperature, "the card's valid_range");
         (void)model_value(s, p, start.molar_mass());
       } catch (const std::exception& e) {
         throw CardError(data.file, p.line, 1, "T_K", format_double(p.temperature),
@@ -369,6 +410,7 @@ FitResult fit(const Material& start, const DataSet& data,
     throw NumericalError("quantacal fit",
                          std::string("the fitted card is not valid: ") + e.what());
   }
+  add_gamma_warnings(r, problem.points);
   return r;
 }
 

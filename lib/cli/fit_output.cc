@@ -279,6 +279,8 @@ std::string report(const FitResult& result, const DataSet& data) {
                                  : "from the sigma column")
     << "\nrelative residuals: rms " << number(100 * result.rms_relative, 3) << " %, max "
     << number(100 * result.max_relative, 3) << " %\n\n";
+  for (const std::string& w : result.warnings)
+    o << "warning: " << w << "\n\n";
   o << "residuals\n";
   char line[256];
   std::snprintf(line, sizeof line, "%6s %10s %10s %-9s %14s %14s %13s %9s %10s\n", "line",

@@ -36,6 +36,24 @@ inline double nist_copper_specific_heat(double t) {
 }
 
 /**
+ * Molar heat capacity of copper, J/mol/K, 1 K to 25 K: the Copper Reference
+ * Equation of the Calorimetry Conference (Osborne, Flotow and Schreiner, Rev.
+ * Sci. Instrum. 38, 159, 1967), C = sum_n A_n T^(2n-1), n = 1..6. Coefficients
+ * from memory; the tests check them against Martin's gamma and theta_0 below
+ * 5 K and against the NIST correlation from 10 K to 30 K before using them.
+ */
+inline double reference_equation_copper_heat_capacity(double t) {
+  static constexpr std::array<double, 6> a = {6.9434e-1, 4.7548e-2,   1.6314e-6,
+                                              9.4786e-8, -1.3639e-10, 5.3898e-14};
+  double sum = 0.0, p = t; // T^(2n-1)
+  for (double c : a) {
+    sum += c * p;
+    p *= t * t;
+  }
+  return 1e-3 * sum; // the coefficients are in mJ/mol/K^(2n)
+}
+
+/**
  * Thermal conductivity of OFHC copper, W/m/K, 4 K to 300 K, same NIST source:
  * log10(k) = (a + c T^0.5 + e T + g T^1.5 + i T^2) / (1 + b T^0.5 + d T + f T^1.5 + h
  * T^2). Coefficients for RRR = 50 and RRR = 100 from memory; checked against the verified

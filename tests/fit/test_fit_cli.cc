@@ -148,6 +148,12 @@ TEST(FitCommand, BadInputGivesClearErrorsAndNoCard) {
   // temperature <= 0
   expect_failure(dir, "T_K,cp_J_per_mol_K\n10,0.1\n0,0.5\n30,1.5\n", {},
                  {2, "data.csv:3:1: T_K = \"0\": expected a temperature > 0 K"});
+  // a row outside the start card's valid_range (1 K to 1300 K)
+  expect_failure(dir, "T_K,cp_J_per_mol_K\n10,0.1\n20,0.5\n1500,30\n", {},
+                 {2,
+                  "data.csv:4:1: T_K = \"1500\": the start card cannot be evaluated "
+                  "here: the card's valid_range: copper (fit start): requires 1 K <= T "
+                  "<= 1300 K but got 1500 K"});
   // fewer points than free parameters
   expect_failure(dir, "T_K,cp_J_per_mol_K\n10,0.1\n20,0.5\n", {},
                  {2, "2 data rows for 2 free parameters: a fit needs more rows than free "

@@ -28,46 +28,121 @@ TEST(FitCopper, CorrelationReproducesVerifiedValues) {
   EXPECT_NEAR(test::nist_copper_specific_heat(300.0), 389.0, 0.5);
 }
 
-TEST(FitCopper, FitsNistCorrelationBetween10And300K) {
-  // 31 points of the NIST OFHC copper correlation (Marquardt, Le and Radebaugh 2000;
-  // coefficients from memory, checked against REFERENCE-DATA.md above), 10 K .. 300 K.
-  std::string csv =
-      "# NIST OFHC copper specific heat correlation, computed\nT_K,cp_J_per_kg_K\n";
-  std::vector<double> temperatures;
-  for (int i = 0; i <= 30; ++i) {
-    const double t = 10.0 * std::pow(30.0, i / 30.0);
-    temperatures.push_back(t);
-    csv +=
-        format_double(t) + "," + format_double(test::nist_copper_specific_heat(t)) + "\n";
+TEST(FitCopper, ReferenceEquationAgreesWithPublishedValues) {
+  // Below 5 K the Copper Reference Equation reduces to gamma T + beta T^3 with
+  // Martin's gamma = 0.691 mJ/mol/K^2 and theta_0 = 344.5 K (Phys. Rev. B 8, 5357,
+  // 1973, REFERENCE-DATA.md, verified); beta = (12 pi^4 R / 5) / theta_0^3.
+  const double beta = 12.0 * std::pow(M_PI, 4) * 8.314462618 / 5.0 / std::pow(344.5, 3);
+  for (double t : {2.0, 3.0, 5.0}) {
+    const double martin = 0.691e-3 * t + beta * t * t * t;
+    EXPECT_NEAR(test::reference_equation_copper_heat_capacity(t) / martin, 1.0, 0.005)
+        << t << " K"; // Martin 1973
   }
-  const fit::DataSet data = fit::read_data_from_string(csv, "nist_copper_cp.csv");
+  // From 10 K to 30 K it agrees with the NIST correlation within that correlation's
+  // stated fit error (5 % above 15 K, 10 % below; REFERENCE-DATA.md).
+  for (double t : {10.0, 12.0, 15.0, 20.0, 25.0, 30.0}) {
+    const double nist = test::nist_copper_specific_heat(t) * test::copper_molar_mass;
+    EXPECT_NEAR(test::reference_equation_copper_heat_capacity(t) / nist, 1.0, 0.05)
+        << t << " K"; // NIST OFHC copper correlation
+  }
+}
+
+namespace {
+/**
+ * Published copper c_p from t_low to 300 K as a data file: the Copper Reference
+ * Equation up to 25 K (21 rows, sigma 0.5 %, a typical adiabatic-calorimetry
+ * uncertainty: common practice) and the NIST correlation above (20 rows, sigma 5 %,
+ * its stated fit error), both in J/kg/K.
+ */
+struct CopperData {
+  std::string csv;
+  std::vector<double> temperatures, values;
+};
+
+CopperData published_copper_data(double t_low) {
+  CopperData d;
+  d.csv = "# copper c_p: Copper Reference Equation to 25 K, NIST correlation above\n"
+          "T_K,cp_J_per_kg_K,sigma\n";
+  auto add = [&](double t, double cp, double sigma) {
+    d.temperatures.push_back(t);
+    d.values.push_back(cp);
+    d.csv +=
+        format_double(t) + "," + format_double(cp) + "," + format_double(sigma) + "\n";
+  };
+  for (int i = 0; i <= 20; ++i) {
+    const double t = t_low * std::pow(25.0 / t_low, i / 20.0);
+    add(t, test::reference_equation_copper_heat_capacity(t) / test::copper_molar_mass,
+        0.005);
+  }
+  for (int i = 1; i <= 20; ++i) {
+    const double t = 25.0 * std::pow(12.0, i / 20.0);
+    add(t, test::nist_copper_specific_heat(t), 0.05);
+  }
+  return d;
+}
+
+struct CopperFit {
+  fit::FitResult result;
+  double worst = 0.0;  ///< largest |card/data - 1| over the rows
+  double theta0 = 0.0; ///< low-temperature Debye temperature of the fitted lattice
+  double gamma = 0.0, gamma_error = 0.0; ///< mJ/mol/K^2
+};
+
+CopperFit fit_copper(double t_low) {
+  const CopperData d = published_copper_data(t_low);
+  const fit::DataSet data = fit::read_data_from_string(d.csv, "copper_cp.csv");
   const MaterialPtr start = load_card(start_card);
   const auto free = fit::resolve_free_parameters(*start, {"theta_D", "gamma", "theta_E",
-                                                          "heat_capacity[0].modes",
-                                                          "heat_capacity[1].modes"});
-  const fit::FitResult r = fit::fit(*start, data, free, {});
+                                                          "heat_capacity[1].modes",
+                                                          "heat_capacity[0].modes"});
+  CopperFit c{fit::fit(*start, data, free, {}), 0.0, 0.0, 0.0, 0.0};
+  const fit::FitResult& r = c.result;
   for (std::size_t j = 0; j < r.values.size(); ++j)
     std::printf("%-26s %12.6g +- %.3g\n", r.parameters[j].path.c_str(), r.values[j],
                 r.standard_errors[j]);
-  std::printf("rms %.2f %%, max %.2f %%\n", 100 * r.rms_relative, 100 * r.max_relative);
-
-  // The fitted card reproduces the published data within 2 % (through its cached table).
-  double worst = 0.0;
-  for (double t : temperatures) {
-    const double c = r.material->thermal(t, Basis::mass).capacity;
-    worst = std::max(worst, std::abs(c / test::nist_copper_specific_heat(t) - 1.0));
+  // The fitted card, through its cached table, against every row.
+  for (std::size_t i = 0; i < d.temperatures.size(); ++i) {
+    const double cp = r.material->thermal(d.temperatures[i], Basis::mass).capacity;
+    c.worst = std::max(c.worst, std::abs(cp / d.values[i] - 1.0));
   }
-  std::printf("worst deviation of the fitted card from the data: %.2f %%\n", 100 * worst);
-  EXPECT_LT(worst, 0.02); // NIST OFHC copper correlation, REFERENCE-DATA.md
+  // theta_0 = theta_D (3/modes)^(1/3): the T^3 limit of a Debye term with `modes`.
+  c.theta0 = r.values[0] * std::cbrt(3.0 / r.values[4]);
+  c.gamma = 1e3 * r.values[1];
+  c.gamma_error = 1e3 * r.standard_errors[1];
+  std::printf("from %g K: worst %.2f %%, theta_0 %.1f K, gamma %.4f +- %.4f mJ/mol/K^2\n",
+              t_low, 100 * c.worst, c.theta0, c.gamma, c.gamma_error);
+  return c;
+}
+} // namespace
 
-  // The low-temperature Debye temperature of the fitted lattice, theta_0 =
-  // theta_D (3/modes)^(1/3) (the T^3 limit of the Debye term with `modes` modes),
-  // lies within 5 % of the calorimetric values 343 K (Kittel, verified) and
-  // 344.5 K (Martin, Phys. Rev. B 8, 5357, 1973, verified).
-  const double theta0 = r.values[0] * std::cbrt(3.0 / r.values[3]);
-  std::printf("theta_0 = %.1f K\n", theta0);
-  EXPECT_NEAR(theta0 / 343.0, 1.0, 0.05); // Kittel, Introduction to Solid State Physics
-  EXPECT_NEAR(theta0 / 344.5, 1.0, 0.05); // Martin 1973
-  // Total lattice modes stay near Dulong-Petit's 3 per atom (common practice).
-  EXPECT_NEAR(r.values[3] + r.values[4], 3.0, 0.2);
+TEST(FitCopper, FitsPublishedDataFrom10KTo300K) {
+  const CopperFit c = fit_copper(10.0);
+  // The fitted card reproduces the published data within 2 % (issue requirement).
+  EXPECT_LT(c.worst, 0.02); // Copper Reference Equation and NIST correlation
+  // theta_0 within 5 % of the calorimetric 343 K (Kittel, Introduction to Solid
+  // State Physics, verified) and 344.5 K (Martin 1973, verified).
+  EXPECT_NEAR(c.theta0 / 343.0, 1.0, 0.05); // Kittel
+  EXPECT_NEAR(c.theta0 / 344.5, 1.0, 0.05); // Martin 1973
+  // Total lattice modes near Dulong-Petit's 3 per atom (common practice).
+  EXPECT_NEAR(c.result.values[3] + c.result.values[4], 3.0, 0.2);
+  // At 10 K the electrons carry about 12 % of c_p (Martin's gamma against the
+  // reference equation), so a few per cent of lattice-shape error in the Debye and
+  // Einstein terms moves gamma by tens of per cent (measured: 0.49 against 0.691).
+  // The fit must say so rather than hand back a gamma that looks well determined.
+  ASSERT_EQ(c.result.warnings.size(), 1u);
+  EXPECT_NE(c.result.warnings[0].find("heat_capacity[2].gamma is poorly determined"),
+            std::string::npos)
+      << c.result.warnings[0];
+}
+
+TEST(FitCopper, FitsPublishedDataFrom2KTo300KAndRecoversGamma) {
+  // With rows down to 2 K, where the electrons carry 78 % of c_p, gamma is pinned.
+  const CopperFit c = fit_copper(2.0);
+  EXPECT_LT(c.worst, 0.02); // Copper Reference Equation and NIST correlation
+  EXPECT_NEAR(c.gamma / 0.691, 1.0, 0.015);                  // Martin 1973 (verified)
+  EXPECT_NEAR(c.gamma / 0.695, 1.0, 0.015);                  // Kittel (from memory)
+  EXPECT_LT(std::abs(c.gamma - 0.691), 2.0 * c.gamma_error); // within 2 sigma of Martin
+  EXPECT_NEAR(c.theta0 / 343.0, 1.0, 0.01);                  // Kittel
+  EXPECT_NEAR(c.theta0 / 344.5, 1.0, 0.01);                  // Martin 1973
+  EXPECT_TRUE(c.result.warnings.empty()) << c.result.warnings.front();
 }
