@@ -6,6 +6,7 @@
 #include <quantacal/models/heat_capacity_model.h>
 
 #include <stdexcept>
+#include <utility>
 
 namespace quantacal::fe {
 
@@ -25,7 +26,14 @@ MaterialField<dim>::MaterialField(
       throw std::invalid_argument("quantacal::fe::MaterialField: material id " +
                                   std::to_string(static_cast<unsigned>(id)) +
                                   " has no material");
-    entries_[id] = Entry{m, m->basis_factor(Basis::volume)};
+    Entry e{m, m->basis_factor(Basis::volume), m->lower_temperature(),
+            m->upper_temperature(), m->shared_table()};
+    // The table applies the same range rule (lower <= T <= upper, NaN rejected) in its
+    // batch, vectorised. When its range is the material's (always, for a Material: the
+    // table is built over the valid range), that check is the only one on the hot path.
+    e.table_checks_range = e.table->lower_temperature() == e.lower_temperature &&
+                           e.table->upper_temperature() == e.upper_temperature;
+    entries_[id] = std::move(e);
   }
 }
 
@@ -59,34 +67,92 @@ std::vector<dealii::types::material_id> MaterialField<dim>::material_ids() const
 }
 
 template <int dim>
+void MaterialField<dim>::check_range(const Entry& e, const double* temperatures,
+                                     std::size_t n) {
+  // the condition of Material::check_temperature (false for NaN and inf), inline; the
+  // material builds the exception, so the message is the material's own
+  for (std::size_t q = 0; q < n; ++q)
+    if (!(temperatures[q] >= e.lower_temperature &&
+          temperatures[q] <= e.upper_temperature))
+      e.material->check_temperature(temperatures[q],
+                                    "quantacal::fe::MaterialField::evaluate");
+}
+
+template <int dim>
 void MaterialField<dim>::evaluate(const dealii::CellAccessor<dim, dim>& cell,
                                   const std::vector<double>& temperatures,
                                   PointProperties& out) const {
-  evaluate(cell.material_id(), temperatures, out);
+  evaluate(cell.material_id(), temperatures, out, PropertySet::all);
 }
 
 template <int dim>
 void MaterialField<dim>::evaluate(dealii::types::material_id id,
                                   const std::vector<double>& temperatures,
                                   PointProperties& out) const {
+  evaluate(id, temperatures, out, PropertySet::all);
+}
+
+template <int dim>
+void MaterialField<dim>::evaluate(const dealii::CellAccessor<dim, dim>& cell,
+                                  const std::vector<double>& temperatures,
+                                  PointProperties& out, PropertySet selection) const {
+  evaluate(cell.material_id(), temperatures, out, selection);
+}
+
+template <int dim>
+void MaterialField<dim>::evaluate(dealii::types::material_id id,
+                                  const std::vector<double>& temperatures,
+                                  PointProperties& out, PropertySet selection) const {
   const Entry& e = entry(id);
+  const Material& m = *e.material;
   const std::size_t n = temperatures.size();
-  out.resize(n);
-  for (std::size_t q = 0; q < n; ++q)
-    e.material->check_temperature(temperatures[q],
-                                  "quantacal::fe::MaterialField::evaluate");
-  // one batch call per cell (the table's fast path)
-  e.material->table().evaluate(temperatures.data(), n, out.energy.data(),
-                               out.capacity.data(), out.capacity_derivative.data());
-  const double f = e.volume_factor;
-  const double offset = e.material->energy_offset();
-  for (std::size_t q = 0; q < n; ++q) {
-    out.energy[q] = f * (out.energy[q] - offset);
-    out.capacity[q] *= f;
-    out.capacity_derivative[q] *= f;
-    const ConductivityValue k = e.material->conductivity(temperatures[q]);
-    out.conductivity[q] = k.value;
-    out.conductivity_derivative[q] = k.derivative;
+  const double* t = temperatures.data();
+  const bool thermal = contains(selection, PropertySet::thermal);
+  const bool conduction = contains(selection, PropertySet::conductivity);
+  bool checked = false; // every temperature is inside the material's valid range
+  if (thermal) {
+    out.energy.resize(n);
+    out.capacity.resize(n);
+    out.capacity_derivative.resize(n);
+    if (!e.table_checks_range)
+      check_range(e, t, n);
+    try {
+      // one batch call per cell (the table's fast path)
+      e.table->evaluate(t, n, out.energy.data(), out.capacity.data(),
+                        out.capacity_derivative.data());
+    } catch (const RangeError&) {
+      // the points again, for the material's message (the table names its model)
+      check_range(e, t, n);
+      throw;
+    }
+    checked = true;
+    const double f = e.volume_factor;
+    const double offset = m.energy_offset();
+    for (std::size_t q = 0; q < n; ++q) {
+      out.energy[q] = f * (out.energy[q] - offset);
+      out.capacity[q] *= f;
+      out.capacity_derivative[q] *= f;
+    }
+  } else {
+    out.energy.clear();
+    out.capacity.clear();
+    out.capacity_derivative.clear();
+  }
+  if (conduction) {
+    if (!checked)
+      check_range(e, t, n);
+    out.conductivity.resize(n);
+    out.conductivity_derivative.resize(n);
+    // the model directly: Material::conductivity would check the range a second time
+    const ConductivityModel& model = m.conductivity_model();
+    for (std::size_t q = 0; q < n; ++q) {
+      const ConductivityValue k = model.evaluate(t[q]);
+      out.conductivity[q] = k.value;
+      out.conductivity_derivative[q] = k.derivative;
+    }
+  } else {
+    out.conductivity.clear();
+    out.conductivity_derivative.clear();
   }
 }
 
@@ -101,8 +167,9 @@ VectorizedProperties<double> MaterialField<dim>::evaluate(
     const Entry& e = entry(ids[l]);
     const double t = temperature[l];
     e.material->check_temperature(t, "quantacal::fe::MaterialField::evaluate");
-    const ThermalState s = e.material->table().evaluate(t);
-    const ConductivityValue k = e.material->conductivity(t);
+    const ThermalState s = e.table->evaluate(t);
+    // the model directly: the range was checked above
+    const ConductivityValue k = e.material->conductivity_model().evaluate(t);
     out.energy[l] = e.volume_factor * (s.energy - e.material->energy_offset());
     out.capacity[l] = e.volume_factor * s.capacity;
     out.capacity_derivative[l] = e.volume_factor * s.capacity_derivative;
@@ -118,7 +185,7 @@ double MaterialField<dim>::energy(dealii::types::material_id id,
   const Entry& e = entry(id);
   e.material->check_temperature(temperature, "quantacal::fe::MaterialField::energy");
   return e.volume_factor *
-         (e.material->table().evaluate(temperature).energy - e.material->energy_offset());
+         (e.table->evaluate(temperature).energy - e.material->energy_offset());
 }
 
 template <int dim>

@@ -629,6 +629,7 @@ HeatEngine<dim>::assemble(const Vec& T_ghost, double time, double beta_h,
   for (const auto& cell : dof_.active_cell_iterators()) {
     if (!cell->is_locally_owned())
       continue;
+    const types::material_id cell_material = cell->material_id();
     fv.reinit(cell);
     fv.get_function_values(T_ghost, T);
     fv.get_function_gradients(T_ghost, gradT);
@@ -659,8 +660,10 @@ HeatEngine<dim>::assemble(const Vec& T_ghost, double time, double beta_h,
           throw RangeError("quantacal::fe::run_case", "temperature field",
                            "a positive, finite temperature", Tm[q]);
       const auto t_mat = Clock::now();
-      field_.evaluate(cell->material_id(), Tm, props_m);
-      field_.evaluate(cell->material_id(), T, props);
+      // each point set gets only what the assembly below reads from it: E, dE/dT and
+      // d^2E/dT^2 at the mass points, k and dk/dT at the Gauss points
+      field_.evaluate(cell_material, Tm, props_m, PropertySet::thermal);
+      field_.evaluate(cell_material, T, props, PropertySet::conductivity);
       material_seconds += seconds_since(t_mat);
     } catch (const std::exception& e) {
       if (!failed)
@@ -668,14 +671,13 @@ HeatEngine<dim>::assemble(const Vec& T_ghost, double time, double beta_h,
       failed = true;
       continue;
     }
-    const double shift = energy_shift_.count(cell->material_id())
-                             ? energy_shift_.at(cell->material_id())
-                             : 0.0;
+    const double shift =
+        energy_shift_.count(cell_material) ? energy_shift_.at(cell_material) : 0.0;
     double q_src = 0.0;
     for (const auto& s : d_.sources)
       if (time >= s.start && time < s.end &&
           (s.material_ids.empty() ||
-           std::find(s.material_ids.begin(), s.material_ids.end(), cell->material_id()) !=
+           std::find(s.material_ids.begin(), s.material_ids.end(), cell_material) !=
                s.material_ids.end()))
         q_src += s.power_density;
 

@@ -38,9 +38,40 @@
 namespace quantacal::fe {
 
 /**
+ * Which properties MaterialField::evaluate computes.
+ *
+ * Why it exists: an assembly loop rarely needs all five properties at the
+ * same points. A lumped or mass quadrature needs the stored energy and the
+ * capacity at its points, the stiffness term needs the conductivity at the
+ * Gauss points. The two groups come from different sources (the cached
+ * table's batch for the first, the conductivity model for the second), so
+ * asking for one group skips the other's work entirely. Values of a group
+ * are the same, bit for bit, whichever selection computed them.
+ */
+enum class PropertySet : unsigned {
+  /// energy, capacity and capacity_derivative (one batch call of the cached table)
+  thermal = 1u,
+  /// conductivity and conductivity_derivative (the material's conductivity model)
+  conductivity = 2u,
+  /// all five properties, what the overloads without a selection compute
+  all = 3u
+};
+
+/** Union of two selections. */
+constexpr PropertySet operator|(PropertySet a, PropertySet b) {
+  return static_cast<PropertySet>(static_cast<unsigned>(a) | static_cast<unsigned>(b));
+}
+
+/** True if @p selection contains every property of @p part. */
+constexpr bool contains(PropertySet selection, PropertySet part) {
+  return (static_cast<unsigned>(selection) & static_cast<unsigned>(part)) ==
+         static_cast<unsigned>(part);
+}
+
+/**
  * Properties at a set of points (one cell's quadrature points), SI units,
- * per unit reference volume. Arrays have the length of the temperature list
- * passed to MaterialField::evaluate.
+ * per unit reference volume. The arrays a MaterialField::evaluate call
+ * selected have the length of its temperature list; the others are empty.
  */
 struct PointProperties {
   std::vector<double> energy;                  ///< E = rho e(T), J/m^3
@@ -81,8 +112,12 @@ public:
   MaterialField() = default;
 
   /**
+   * Builds the cached table of every material that has not built it yet, so
+   * that evaluation never waits for a build.
    * @param materials material id -> material (each non-null)
    * @throws std::invalid_argument for a null material
+   * @throws NumericalError if a material's table cannot be built (see
+   * PropertyTable::build)
    */
   explicit MaterialField(std::map<dealii::types::material_id, MaterialPtr> materials);
 
@@ -120,6 +155,42 @@ public:
                 PointProperties& out) const;
 
   /**
+   * Fills only the properties of @p selection at the temperatures of the
+   * points of @p cell (the cell's material id selects the material).
+   *
+   * An assembly that needs E and dE/dT at its mass points and k, dk/dT at its
+   * Gauss points calls this twice with PropertySet::thermal and
+   * PropertySet::conductivity and so does half the work of two full calls.
+   * Each temperature is checked against the material's valid range once per
+   * call. The selected arrays equal, bit for bit, those of the overloads
+   * without a selection.
+   * @param cell any cell iterator of a Triangulation<dim> (or a DoF iterator)
+   * @param temperatures temperatures at the points, K
+   * @param out the arrays of @p selection are resized to temperatures.size()
+   *        and filled (SI, per reference volume); the other arrays are emptied
+   * @param selection which properties to compute
+   * @throws RangeError if a temperature is outside the material's valid range
+   *         (the same exception, message included, as the full evaluation)
+   * @throws std::out_of_range if the cell's material id has no material
+   */
+  void evaluate(const dealii::CellAccessor<dim, dim>& cell,
+                const std::vector<double>& temperatures, PointProperties& out,
+                PropertySet selection) const;
+
+  /**
+   * Same as the cell overload with a selection, selecting the material by id.
+   * @param id material id
+   * @param temperatures K
+   * @param out the arrays of @p selection filled (SI per reference volume), the
+   *        others emptied
+   * @param selection which properties to compute
+   * @throws RangeError if a temperature is outside the material's valid range
+   * @throws std::out_of_range if @p id has no material
+   */
+  void evaluate(dealii::types::material_id id, const std::vector<double>& temperatures,
+                PointProperties& out, PropertySet selection) const;
+
+  /**
    * SIMD overload for matrix-free operators: lane l of @p temperature belongs
    * to a cell with material id @p ids[l] (lanes of a cell batch may come from
    * cells of different materials). With Debian's deal.II the batch width is 1.
@@ -149,9 +220,16 @@ public:
 private:
   struct Entry {
     MaterialPtr material;
-    double volume_factor = 0.0; ///< rho/M, mol/m^3
+    double volume_factor = 0.0;     ///< rho/M, mol/m^3
+    double lower_temperature = 0.0; ///< the material's valid range, K
+    double upper_temperature = 0.0; ///< K
+    TablePtr table; ///< the material's cached table (built at construction)
+    /// the table's range is the valid range, so the table's own check is the range check
+    bool table_checks_range = false;
   };
   const Entry& entry(dealii::types::material_id id) const;
+  /** Throws the material's RangeError for the first temperature outside its range. */
+  static void check_range(const Entry& e, const double* temperatures, std::size_t n);
   std::map<dealii::types::material_id, Entry> entries_;
 };
 
