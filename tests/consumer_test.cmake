@@ -1,9 +1,9 @@
 # SPDX-License-Identifier: Apache-2.0
 # Install-tree test: install this build into a staging prefix under the build folder,
 # then configure, build and run tests/consumer (find_package(quantacal)) against it.
-set(_qc_consumer_targets quantacal quantacal_cli)
-if(TARGET quantacal_fe)
-  list(APPEND _qc_consumer_targets quantacal_fe)
+set(_qc_consumer_targets quantacal_cards quantacal_fit quantacal_cli)
+if(TARGET quantacal_solver)
+  list(APPEND _qc_consumer_targets quantacal_fe quantacal_solver)
 endif()
 string(REPLACE ";" "\\;" _qc_consumer_targets_arg "${_qc_consumer_targets}")
 add_test(NAME consumer.find_package_install_tree

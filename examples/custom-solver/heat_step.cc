@@ -12,7 +12,7 @@
 // faces insulated; backward Euler, Newton with the consistent Jacobian.
 // Usage: heat_step <card.yaml>
 #include <quantacal/cards/card.h>
-#include <quantacal/exceptions.h>
+#include <quantacal/common/exceptions.h>
 #include <quantacal/fe/material_field.h>
 
 #include <deal.II/base/quadrature_lib.h>

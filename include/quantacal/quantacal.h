@@ -7,9 +7,9 @@
 #define QUANTACAL_QUANTACAL_H
 
 #include <quantacal/cards/card.h>
-#include <quantacal/cards/material.h>
 #include <quantacal/cards/units.h>
-#include <quantacal/exceptions.h>
+#include <quantacal/common/exceptions.h>
+#include <quantacal/material/material.h>
 #include <quantacal/models/conductivity.h>
 #include <quantacal/models/contribution.h>
 #include <quantacal/models/heat_capacity_model.h>

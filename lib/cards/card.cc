@@ -1,11 +1,12 @@
 // SPDX-License-Identifier: Apache-2.0
 // YAML material cards -> Material (docs/cards.md).
 #include <quantacal/cards/card.h>
+#include <quantacal/common/text.h>
 
 #include "card_reader.h"
 #include "units_detail.h"
 
-#include <quantacal/exceptions.h>
+#include <quantacal/common/exceptions.h>
 
 #include <yaml-cpp/yaml.h>
 

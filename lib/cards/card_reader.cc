@@ -2,6 +2,9 @@
 // Internal: located access to a YAML card (see card_reader.h).
 #include "card_reader.h"
 
+#include <quantacal/common/constants.h>
+#include <quantacal/common/text.h>
+
 #include "units_detail.h"
 
 #include <set>
@@ -166,7 +169,7 @@ double CardReader::positive_temperature_difference(const YAML::Node& node,
              (q.dimension == dimension::dimensionless()
                   ? std::string("a plain number")
                   : dimension_description(q.dimension)));
-  const double value = q.is_temperature_offset ? q.value - 273.15 : q.value;
+  const double value = q.is_temperature_offset ? q.value - celsius_offset : q.value;
   if (!(value > 0.0))
     fail(node, path, t, "expected a temperature difference > 0 K");
   return value;

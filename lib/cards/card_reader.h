@@ -8,7 +8,7 @@
 #define QUANTACAL_LIB_CARDS_CARD_READER_H
 
 #include <quantacal/cards/units.h>
-#include <quantacal/exceptions.h>
+#include <quantacal/common/exceptions.h>
 #include <quantacal/models/conductivity.h>
 #include <quantacal/models/contribution.h>
 #include <quantacal/models/heat_capacity_model.h>

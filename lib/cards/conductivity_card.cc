@@ -5,6 +5,7 @@
 
 #include "units_detail.h"
 
+#include <quantacal/common/text.h>
 #include <quantacal/models/metal_conductivity.h>
 
 #include <array>

@@ -2,6 +2,8 @@
 // The `heat_capacity` list and the `dilation` block of a card.
 #include "card_reader.h"
 
+#include <quantacal/common/text.h>
+
 #include "units_detail.h"
 
 #include <functional>

@@ -8,6 +8,7 @@
 #include "units_detail.h"
 
 #include <quantacal/cards/units.h>
+#include <quantacal/common/constants.h>
 
 #include <algorithm>
 #include <cctype>
@@ -166,8 +167,7 @@ private:
       const std::string symbol = text_.substr(start, pos_ - start);
       const auto it = unit_symbols().find(symbol);
       if (it == unit_symbols().end())
-        fail("unknown unit '" + symbol + "'" +
-             detail::did_you_mean(symbol, unit_names()) +
+        fail("unknown unit '" + symbol + "'" + did_you_mean(symbol, unit_names()) +
              " (the list of units is in docs/cards.md)");
       base = it->second;
       celsius = base.is_celsius;
@@ -315,51 +315,6 @@ std::string dimension_description(const Dimension& d) {
   return "a quantity of dimension " + d.to_string();
 }
 
-std::size_t edit_distance(const std::string& a, const std::string& b) {
-  std::vector<std::size_t> row(b.size() + 1);
-  for (std::size_t j = 0; j <= b.size(); ++j)
-    row[j] = j;
-  for (std::size_t i = 1; i <= a.size(); ++i) {
-    std::size_t diagonal = row[0];
-    row[0] = i;
-    for (std::size_t j = 1; j <= b.size(); ++j) {
-      const std::size_t above = row[j];
-      const std::size_t cost = a[i - 1] == b[j - 1] ? 0 : 1;
-      row[j] = std::min({row[j] + 1, row[j - 1] + 1, diagonal + cost});
-      diagonal = above;
-    }
-  }
-  return row[b.size()];
-}
-
-std::string did_you_mean(const std::string& word,
-                         const std::vector<std::string>& candidates) {
-  const auto lower = [](std::string s) {
-    for (char& ch : s)
-      ch = static_cast<char>(std::tolower(static_cast<unsigned char>(ch)));
-    return s;
-  };
-  // A difference of case only is the nearest miss of all.
-  for (const auto& c : candidates)
-    if (c != word && lower(c) == lower(word))
-      return " (did you mean '" + c + "'?)";
-  std::string best;
-  std::size_t best_distance = std::string::npos;
-  for (const auto& c : candidates) {
-    const std::size_t d = edit_distance(word, c);
-    if (d < best_distance) {
-      best_distance = d;
-      best = c;
-    }
-  }
-  // Suggest only a near miss: at most 2 edits, and fewer than half the word.
-  const std::size_t limit =
-      std::min<std::size_t>(2, std::max<std::size_t>(1, word.size() / 2));
-  if (best.empty() || best_distance > limit)
-    return "";
-  return " (did you mean '" + best + "'?)";
-}
-
 double parse_number(const std::string& text) {
   std::size_t begin = 0, end = text.size();
   while (begin < end && (text[begin] == ' ' || text[begin] == '\t'))
@@ -417,7 +372,7 @@ Quantity parse_quantity(const std::string& text) {
   }
   q.dimension = u.dimension;
   if (parser.only_celsius()) {
-    q.value = number + 273.15;
+    q.value = number + celsius_offset;
     q.is_temperature_offset = true;
   } else {
     q.value = number * u.scale;

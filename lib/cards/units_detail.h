@@ -4,7 +4,7 @@
 #define QUANTACAL_LIB_CARDS_UNITS_DETAIL_H
 
 #include <quantacal/cards/units.h>
-#include <quantacal/detail/text.h>
+#include <quantacal/common/text.h>
 
 #include <cstddef>
 #include <string>

@@ -4,7 +4,7 @@
 #include "options.h"
 
 #include <quantacal/cards/card.h>
-#include <quantacal/exceptions.h>
+#include <quantacal/common/exceptions.h>
 #include <quantacal/models/metal_conductivity.h>
 
 #include <algorithm>

@@ -5,7 +5,7 @@
 #include "options.h"
 
 #include <quantacal/cards/card.h>
-#include <quantacal/exceptions.h>
+#include <quantacal/common/exceptions.h>
 
 #include <boost/math/tools/toms748_solve.hpp>
 

@@ -1,11 +1,11 @@
 // SPDX-License-Identifier: Apache-2.0
 // `quantacal fit`: fits card parameters to measured c_p, energy-increment and k points.
 #include "command_registry.h"
-#include "fit_engine.h"
 #include "options.h"
+#include <quantacal/fit/fit.h>
 
 #include <quantacal/cards/card.h>
-#include <quantacal/exceptions.h>
+#include <quantacal/common/exceptions.h>
 
 #include <filesystem>
 #include <fstream>

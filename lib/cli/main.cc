@@ -3,7 +3,7 @@
 #include "command_registry.h"
 
 #include <quantacal/cards/card.h>
-#include <quantacal/exceptions.h>
+#include <quantacal/common/exceptions.h>
 #include <quantacal/version.h>
 
 #include <filesystem>

@@ -1,6 +1,9 @@
 // SPDX-License-Identifier: Apache-2.0
 #include "options.h"
 
+#include <quantacal/common/constants.h>
+#include <quantacal/common/text.h>
+
 #include <algorithm>
 #include <charconv>
 #include <cmath>
@@ -8,9 +11,6 @@
 
 namespace quantacal::cli {
 namespace {
-
-/// 0 degC in K (definition of the Celsius scale).
-constexpr double celsius_offset = 273.15;
 
 std::string trim(const std::string& s) {
   const auto first = s.find_first_not_of(" \t");
@@ -184,17 +184,12 @@ ParsedOptions OptionParser::parse(const std::vector<std::string>& args) const {
     const Spec* spec = find(name);
     if (!spec) {
       std::string message = "unknown option '--" + name + "'";
-      const Spec* best = nullptr;
-      std::size_t best_distance = 3; // suggest only close names
-      for (const auto& candidate : specs_) {
-        const std::size_t d = edit_distance(name, candidate.name);
-        if (d < best_distance) {
-          best_distance = d;
-          best = &candidate;
-        }
-      }
-      if (best)
-        message += " (did you mean '--" + best->name + "'?)";
+      std::vector<std::string> names;
+      for (const auto& candidate : specs_)
+        names.push_back(candidate.name);
+      const std::string hint = did_you_mean(name, names, "--");
+      if (!hint.empty())
+        message += hint;
       else
         message += " (run 'quantacal " + command_ + " --help' for the options)";
       throw UsageError(message);

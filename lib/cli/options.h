@@ -27,7 +27,7 @@
 #ifndef QUANTACAL_CLI_OPTIONS_H
 #define QUANTACAL_CLI_OPTIONS_H
 
-#include <quantacal/detail/text.h>
+#include <quantacal/common/text.h>
 
 #include <map>
 #include <optional>
@@ -168,9 +168,6 @@ std::optional<double> parse_number(const std::string& text);
  * @throws UsageError naming @p what and the text
  */
 double parse_temperature_argument(const std::string& text, const std::string& what);
-
-/// The edit distance between two strings (Levenshtein), for "did you mean".
-using quantacal::detail::edit_distance;
 
 /** The exit-code paragraph shared by the sub-commands' --help. */
 std::string exit_code_help();

@@ -3,8 +3,8 @@
 // Works under `mpirun -np N`; only rank 0 prints.
 #include "command_registry.h"
 
-#include <quantacal/exceptions.h>
-#include <quantacal/fe/solver.h>
+#include <quantacal/common/exceptions.h>
+#include <quantacal/solver/solver.h>
 
 #include <deal.II/base/mpi.h>
 

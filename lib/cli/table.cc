@@ -1,11 +1,11 @@
 // SPDX-License-Identifier: Apache-2.0
 // `quantacal table`: specific heat, stored energy and conductivity of one card as CSV.
 #include "command_registry.h"
-#include "fit_engine.h"
 #include "options.h"
+#include <quantacal/fit/fit.h>
 
 #include <quantacal/cards/card.h>
-#include <quantacal/exceptions.h>
+#include <quantacal/common/exceptions.h>
 
 #include <cmath>
 #include <fstream>

@@ -1,6 +1,6 @@
 // SPDX-License-Identifier: Apache-2.0
 // MaterialField: material id -> Material, evaluated at quadrature points.
-#include <quantacal/exceptions.h>
+#include <quantacal/common/exceptions.h>
 #include <quantacal/fe/material_field.h>
 #include <quantacal/models/contribution.h>
 #include <quantacal/models/heat_capacity_model.h>

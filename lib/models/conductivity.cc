@@ -3,7 +3,7 @@
 #include "monotone_cubic.h"
 #include "validation.h"
 
-#include <quantacal/exceptions.h>
+#include <quantacal/common/exceptions.h>
 #include <quantacal/models/conductivity.h>
 
 #include <algorithm>

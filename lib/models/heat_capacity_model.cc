@@ -2,7 +2,7 @@
 // HeatCapacityModel (sum of terms + dilation) and the Neumann-Kopp scaled term.
 #include "validation.h"
 
-#include <quantacal/exceptions.h>
+#include <quantacal/common/exceptions.h>
 #include <quantacal/models/heat_capacity_model.h>
 
 #include <boost/math/quadrature/gauss_kronrod.hpp>

@@ -17,7 +17,7 @@
 //    stopped once a term is below 2^-60 of m! zeta(m+1). At x = 3 the sum removes
 //    about 90 % of the constant, so less than one digit is lost.
 //  - x > 700: e^-x underflows; J_n = n! zeta(n) exactly in double precision.
-#include <quantacal/exceptions.h>
+#include <quantacal/common/exceptions.h>
 #include <quantacal/models/metal_conductivity.h>
 
 #include <boost/math/constants/constants.hpp>

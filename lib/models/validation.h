@@ -7,7 +7,7 @@
 #ifndef QUANTACAL_LIB_MODELS_VALIDATION_H
 #define QUANTACAL_LIB_MODELS_VALIDATION_H
 
-#include <quantacal/exceptions.h>
+#include <quantacal/common/exceptions.h>
 
 #include <cmath>
 #include <stdexcept>

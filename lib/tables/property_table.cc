@@ -2,7 +2,7 @@
 // PropertyTable: build (error control, layout) and evaluation (scalar, batch, inverse).
 #include "table_layout.h"
 
-#include <quantacal/exceptions.h>
+#include <quantacal/common/exceptions.h>
 #include <quantacal/tables/property_table.h>
 
 #include <algorithm>

@@ -14,7 +14,7 @@
 #include <quantacal/tables/property_table.h>
 #ifdef QUANTACAL_BENCH_WITH_CARDS
 #include <quantacal/cards/card.h>
-#include <quantacal/cards/material.h>
+#include <quantacal/material/material.h>
 #endif
 
 #include <benchmark/benchmark.h>

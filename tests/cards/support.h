@@ -4,7 +4,7 @@
 #define QUANTACAL_TESTS_CARDS_SUPPORT_H
 
 #include <quantacal/cards/card.h>
-#include <quantacal/exceptions.h>
+#include <quantacal/common/exceptions.h>
 
 #include <gtest/gtest.h>
 

@@ -5,7 +5,7 @@
 #include "support.h"
 
 #include <quantacal/cards/card.h>
-#include <quantacal/exceptions.h>
+#include <quantacal/common/exceptions.h>
 
 #include <gtest/gtest.h>
 

@@ -5,7 +5,7 @@
 #include "cli/test_cards.h"
 
 #include <quantacal/cards/card.h>
-#include <quantacal/exceptions.h>
+#include <quantacal/common/exceptions.h>
 
 #include <gtest/gtest.h>
 

@@ -6,7 +6,7 @@
 
 #include "cli/cli_support.h"
 
-#include <quantacal/exceptions.h>
+#include <quantacal/common/exceptions.h>
 
 #include <string>
 

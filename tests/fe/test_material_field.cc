@@ -7,7 +7,7 @@
 #include "reference/validation_support.h"
 
 #include <quantacal/cards/card.h>
-#include <quantacal/exceptions.h>
+#include <quantacal/common/exceptions.h>
 #include <quantacal/fe/material_field.h>
 
 #include <deal.II/grid/grid_generator.h>

@@ -3,7 +3,7 @@
 // against closed forms and an independent Boost.Math quadrature.
 #include "reference/lumped.h"
 
-#include <quantacal/cards/material.h>
+#include <quantacal/material/material.h>
 #include <quantacal/models/conductivity.h>
 #include <quantacal/models/contribution.h>
 #include <quantacal/models/heat_capacity_model.h>

@@ -1,8 +1,8 @@
 // SPDX-License-Identifier: Apache-2.0
 // Solver engine: energy ledger, formulations and an analytic convection check.
-#include <quantacal/exceptions.h>
+#include <quantacal/common/exceptions.h>
 #include <quantacal/fe/material_field.h>
-#include <quantacal/fe/solver.h>
+#include <quantacal/solver/solver.h>
 
 #include <gtest/gtest.h>
 

@@ -1,8 +1,8 @@
 // SPDX-License-Identifier: Apache-2.0
 // Bad input to `quantacal run`: each a clear error (file:line:column: field =
 // "value": expected ...), a non-zero exit code and no truncated output file.
-#include <quantacal/exceptions.h>
-#include <quantacal/fe/solver.h>
+#include <quantacal/common/exceptions.h>
+#include <quantacal/solver/solver.h>
 
 #include <gtest/gtest.h>
 

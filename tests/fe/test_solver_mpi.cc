@@ -1,7 +1,7 @@
 // SPDX-License-Identifier: Apache-2.0
 // Run under `mpirun -np 2 test_fe --gtest_filter=Mpi*` (CTest: fe_mpi_2_ranks):
 // the same case on all ranks together and on each rank alone agrees at the probes.
-#include <quantacal/fe/solver.h>
+#include <quantacal/solver/solver.h>
 
 #include <deal.II/base/mpi.h>
 

@@ -10,7 +10,7 @@
 #include "reference/validation_support.h"
 
 #include <quantacal/fe/material_field.h>
-#include <quantacal/fe/solver.h>
+#include <quantacal/solver/solver.h>
 
 #include <gtest/gtest.h>
 

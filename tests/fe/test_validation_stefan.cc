@@ -9,11 +9,11 @@
 #include "reference/stefan.h"
 #include "reference/validation_support.h"
 
-#include <quantacal/cards/material.h>
-#include <quantacal/fe/solver.h>
+#include <quantacal/material/material.h>
 #include <quantacal/models/conductivity.h>
 #include <quantacal/models/contribution.h>
 #include <quantacal/models/heat_capacity_model.h>
+#include <quantacal/solver/solver.h>
 
 #include <gtest/gtest.h>
 

@@ -3,7 +3,7 @@
 #ifndef QUANTACAL_TESTS_FIT_SUPPORT_H
 #define QUANTACAL_TESTS_FIT_SUPPORT_H
 
-#include <quantacal/cards/material.h>
+#include <quantacal/material/material.h>
 #include <quantacal/models/contribution.h>
 #include <quantacal/models/heat_capacity_model.h>
 #include <quantacal/models/metal_conductivity.h>

@@ -2,10 +2,10 @@
 // One-sigma bands propagated from the covariance of a fitted card's `fit` record.
 #include "fit/fit_support.h"
 
-#include "fit_engine.h"
+#include <quantacal/fit/fit.h>
 
 #include <quantacal/cards/card.h>
-#include <quantacal/exceptions.h>
+#include <quantacal/common/exceptions.h>
 
 #include <gtest/gtest.h>
 

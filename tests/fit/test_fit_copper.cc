@@ -2,10 +2,10 @@
 // `quantacal fit` on published copper specific-heat data, 10 K to 300 K.
 #include "fit/fit_support.h"
 
-#include "fit_engine.h"
+#include <quantacal/fit/fit.h>
 
 #include <quantacal/cards/card.h>
-#include <quantacal/exceptions.h>
+#include <quantacal/common/exceptions.h>
 
 #include <gtest/gtest.h>
 

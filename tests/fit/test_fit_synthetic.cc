@@ -4,9 +4,9 @@
 // errors that agree with the scatter of the estimates over repeated seeds.
 #include "fit/fit_support.h"
 
-#include "fit_engine.h"
+#include <quantacal/fit/fit.h>
 
-#include <quantacal/exceptions.h>
+#include <quantacal/common/exceptions.h>
 
 #include <gtest/gtest.h>
 

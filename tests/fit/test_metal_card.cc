@@ -3,7 +3,7 @@
 #include "fit/fit_support.h"
 
 #include <quantacal/cards/card.h>
-#include <quantacal/exceptions.h>
+#include <quantacal/common/exceptions.h>
 #include <quantacal/models/metal_conductivity.h>
 
 #include <gtest/gtest.h>

@@ -3,9 +3,9 @@
 // quadrature, analytic derivative, limits, copper against NIST values, errors.
 #include "fit/fit_support.h"
 
-#include "fit_engine.h"
+#include <quantacal/fit/fit.h>
 
-#include <quantacal/exceptions.h>
+#include <quantacal/common/exceptions.h>
 #include <quantacal/models/metal_conductivity.h>
 
 #include <boost/math/quadrature/gauss_kronrod.hpp>

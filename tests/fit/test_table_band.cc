@@ -2,10 +2,10 @@
 // `quantacal table --band` on a card written by `quantacal fit`, and the
 // Wiedemann-Franz warning of `quantacal check` for the metal conductivity model.
 #include "cli/cli_support.h"
-#include "fit_engine.h"
+#include <quantacal/fit/fit.h>
 
 #include <quantacal/cards/card.h>
-#include <quantacal/exceptions.h>
+#include <quantacal/common/exceptions.h>
 
 #include <gtest/gtest.h>
 

@@ -2,7 +2,7 @@
 // Conductivity models: constant, and the monotone log-log table.
 #include "support.h"
 
-#include <quantacal/exceptions.h>
+#include <quantacal/common/exceptions.h>
 #include <quantacal/models/conductivity.h>
 
 #include <boost/math/interpolators/pchip.hpp>

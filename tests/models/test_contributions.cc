@@ -3,7 +3,7 @@
 // the individual terms against published values and reference libraries.
 #include "support.h"
 
-#include <quantacal/exceptions.h>
+#include <quantacal/common/exceptions.h>
 #include <quantacal/models/contribution.h>
 #include <quantacal/models/heat_capacity_model.h>
 

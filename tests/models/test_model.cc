@@ -3,7 +3,7 @@
 // composition.
 #include "support.h"
 
-#include <quantacal/exceptions.h>
+#include <quantacal/common/exceptions.h>
 #include <quantacal/models/heat_capacity_model.h>
 
 #include <gtest/gtest.h>

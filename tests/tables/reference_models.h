@@ -6,7 +6,7 @@
 #ifndef QUANTACAL_TESTS_TABLES_REFERENCE_MODELS_H
 #define QUANTACAL_TESTS_TABLES_REFERENCE_MODELS_H
 
-#include <quantacal/exceptions.h>
+#include <quantacal/common/exceptions.h>
 #include <quantacal/models/thermal_model.h>
 
 #include <gsl/gsl_sf_debye.h>

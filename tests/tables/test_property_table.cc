@@ -5,9 +5,9 @@
 // inverse, batch, out-of-range rule, options, failure paths and threads.
 #include "reference_models.h"
 
-#include <tables/table_layout.h> // detail::force_portable_batch
+#include "table_layout.h" // detail::force_portable_batch
 
-#include <quantacal/exceptions.h>
+#include <quantacal/common/exceptions.h>
 #include <quantacal/tables/property_table.h>
 
 #include <gtest/gtest.h>

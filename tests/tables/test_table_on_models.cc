@@ -4,7 +4,7 @@
 // path against the independent GSL reference of reference_models.h.
 #include "reference_models.h"
 
-#include <quantacal/exceptions.h>
+#include <quantacal/common/exceptions.h>
 #include <quantacal/models/contribution.h>
 #include <quantacal/models/heat_capacity_model.h>
 #include <quantacal/tables/property_table.h>

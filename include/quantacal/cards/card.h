@@ -9,7 +9,7 @@
 #ifndef QUANTACAL_CARDS_CARD_H
 #define QUANTACAL_CARDS_CARD_H
 
-#include <quantacal/cards/material.h>
+#include <quantacal/material/material.h>
 
 #include <string>
 

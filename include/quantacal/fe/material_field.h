@@ -22,7 +22,7 @@
 #ifndef QUANTACAL_FE_MATERIAL_FIELD_H
 #define QUANTACAL_FE_MATERIAL_FIELD_H
 
-#include <quantacal/cards/material.h>
+#include <quantacal/material/material.h>
 
 #include <deal.II/base/types.h>
 #include <deal.II/base/vectorization.h>

@@ -37,6 +37,7 @@
 #ifndef QUANTACAL_MODELS_METAL_CONDUCTIVITY_H
 #define QUANTACAL_MODELS_METAL_CONDUCTIVITY_H
 
+#include <quantacal/common/constants.h>
 #include <quantacal/models/conductivity.h>
 #include <quantacal/models/contribution.h>
 
@@ -45,9 +46,6 @@
 #include <vector>
 
 namespace quantacal {
-
-/** The Sommerfeld value of the Lorenz number, L0 = pi^2 k_B^2 / (3 e^2), W Ohm/K^2. */
-inline constexpr double sommerfeld_lorenz_number = 2.44e-8;
 
 /** Upper temperature of the residual-resistivity ratio RRR = rho(273 K)/rho(4 K), K. */
 inline constexpr double rrr_upper_temperature = 273.0;

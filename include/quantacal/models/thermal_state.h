@@ -6,6 +6,8 @@
 #ifndef QUANTACAL_MODELS_THERMAL_STATE_H
 #define QUANTACAL_MODELS_THERMAL_STATE_H
 
+#include <quantacal/common/constants.h>
+
 namespace quantacal {
 
 /**
@@ -42,9 +44,6 @@ inline ThermalState operator+(ThermalState a, const ThermalState& b) noexcept {
 inline ThermalState operator*(double f, ThermalState a) noexcept {
   return a *= f;
 }
-
-/** The molar gas constant R, J/mol/K (CODATA 2018, exact since the 2019 SI). */
-inline constexpr double gas_constant = 8.314462618;
 
 } // namespace quantacal
 

@@ -25,7 +25,7 @@
 #ifndef QUANTACAL_TESTS_REFERENCE_LUMPED_H
 #define QUANTACAL_TESTS_REFERENCE_LUMPED_H
 
-#include <quantacal/cards/material.h>
+#include <quantacal/material/material.h>
 
 #include <functional>
 #include <vector>

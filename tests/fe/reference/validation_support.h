@@ -6,12 +6,12 @@
  *
  * MPI is initialised by test_main.cc (dealii::Utilities::MPI::MPI_InitFinalize).
  *
- * Header-only; it sees the engine only through quantacal/fe/solver.h.
+ * Header-only; it sees the engine only through quantacal/solver/solver.h.
  */
 #ifndef QUANTACAL_TESTS_REFERENCE_VALIDATION_SUPPORT_H
 #define QUANTACAL_TESTS_REFERENCE_VALIDATION_SUPPORT_H
 
-#include <quantacal/fe/solver.h>
+#include <quantacal/solver/solver.h>
 
 #include <algorithm>
 #include <cmath>

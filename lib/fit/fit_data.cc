@@ -1,9 +1,10 @@
 // SPDX-License-Identifier: Apache-2.0
 // `quantacal fit`: reading the CSV data file, and its SHA-256 checksum.
 #include "fit_detail.h"
-#include "fit_engine.h"
+#include <quantacal/common/text.h>
+#include <quantacal/fit/fit.h>
 
-#include <quantacal/exceptions.h>
+#include <quantacal/common/exceptions.h>
 
 #include <array>
 #include <charconv>
@@ -14,22 +15,6 @@
 
 namespace quantacal::fit {
 namespace detail {
-
-std::string did_you_mean(const std::string& word,
-                         const std::vector<std::string>& choices) {
-  std::string best;
-  std::size_t best_distance = std::string::npos;
-  for (const auto& c : choices) {
-    const std::size_t d = edit_distance(word, c);
-    if (d < best_distance) {
-      best_distance = d;
-      best = c;
-    }
-  }
-  if (best.empty() || best_distance > std::max<std::size_t>(3, word.size() / 3))
-    return "";
-  return " (did you mean '" + best + "'?)";
-}
 
 std::optional<double> parse_double(const std::string& text) {
   const char* first = text.data();
@@ -179,7 +164,7 @@ DataSet read_data_from_string(const std::string& text, const std::string& file) 
       for (const auto& k : kColumns)
         list += (list.empty() ? "" : ", ") + k;
       throw CardError(file, header_line, header_columns[c], "header", header[c],
-                      "unknown column" + detail::did_you_mean(header[c], kColumns) +
+                      "unknown column" + quantacal::did_you_mean(header[c], kColumns) +
                           "; expected some of: " + list);
     }
     const std::size_t k = static_cast<std::size_t>(it - kColumns.begin());
@@ -193,7 +178,7 @@ DataSet read_data_from_string(const std::string& text, const std::string& file) 
     throw CardError(
         file, header_line, 1, "header", "", "missing column 'T_K'" + [&] {
           for (const auto& h : header)
-            if (!detail::did_you_mean(h, {"T_K"}).empty())
+            if (!quantacal::did_you_mean(h, {"T_K"}).empty())
               return " (found '" + h + "': did you mean 'T_K'?)";
           return std::string();
         }());

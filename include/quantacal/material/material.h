@@ -3,8 +3,8 @@
  * @file material.h
  * @brief A material: its exact model, conductivity, metadata and cached table.
  */
-#ifndef QUANTACAL_CARDS_MATERIAL_H
-#define QUANTACAL_CARDS_MATERIAL_H
+#ifndef QUANTACAL_MATERIAL_MATERIAL_H
+#define QUANTACAL_MATERIAL_MATERIAL_H
 
 #include <quantacal/models/conductivity.h>
 #include <quantacal/models/heat_capacity_model.h>

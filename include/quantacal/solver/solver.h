@@ -19,10 +19,10 @@
  * energy ledger, step statistics, crossing times). The header does not
  * include deal.II; only MPI.
  */
-#ifndef QUANTACAL_FE_SOLVER_H
-#define QUANTACAL_FE_SOLVER_H
+#ifndef QUANTACAL_SOLVER_SOLVER_H
+#define QUANTACAL_SOLVER_SOLVER_H
 
-#include <quantacal/cards/material.h>
+#include <quantacal/material/material.h>
 
 #include <mpi.h>
 

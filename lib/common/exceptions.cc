@@ -1,9 +1,6 @@
 // SPDX-License-Identifier: Apache-2.0
-#include <quantacal/exceptions.h>
-
-#include <charconv>
-#include <cmath>
-#include <system_error>
+#include <quantacal/common/exceptions.h>
+#include <quantacal/common/format.h>
 
 namespace quantacal {
 namespace {
@@ -30,18 +27,8 @@ std::string card_message(const std::string& file, int line, int column,
 
 } // namespace
 
-std::string format_double(double value) {
-  if (std::isnan(value))
-    return "nan";
-  if (std::isinf(value))
-    return value > 0 ? "inf" : "-inf";
-  char buffer[64];
-  const auto result = std::to_chars(buffer, buffer + sizeof buffer, value);
-  return std::string(buffer, result.ptr);
-}
-
-CardError::CardError(std::string file, int line, int column, std::string field,
-                     std::string value, std::string expected)
+InputError::InputError(std::string file, int line, int column, std::string field,
+                       std::string value, std::string expected)
     : std::runtime_error(card_message(file, line, column, field, value, expected)),
       file_(std::move(file)), line_(line), column_(column), field_(std::move(field)),
       value_(std::move(value)), expected_(std::move(expected)) {}

@@ -1,9 +1,9 @@
 // SPDX-License-Identifier: Apache-2.0
 // `quantacal fit`: the fitted card (text edits of the start card), the report and the
 // plot.
-#include "fit_engine.h"
+#include <quantacal/fit/fit.h>
 
-#include <quantacal/exceptions.h>
+#include <quantacal/common/exceptions.h>
 #include <quantacal/version.h>
 
 #include <yaml-cpp/yaml.h>

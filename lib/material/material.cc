@@ -1,8 +1,8 @@
 // SPDX-License-Identifier: Apache-2.0
 // Material: an exact model, a conductivity, metadata and a table built on first use.
-#include <quantacal/cards/material.h>
+#include <quantacal/material/material.h>
 
-#include <quantacal/exceptions.h>
+#include <quantacal/common/exceptions.h>
 
 #include <cmath>
 #include <stdexcept>

@@ -5,7 +5,7 @@
 #ifndef QUANTACAL_LIB_FE_REPORT_H
 #define QUANTACAL_LIB_FE_REPORT_H
 
-#include <quantacal/fe/solver.h>
+#include <quantacal/solver/solver.h>
 
 #include <string>
 #include <vector>

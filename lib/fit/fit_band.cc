@@ -1,9 +1,9 @@
 // SPDX-License-Identifier: Apache-2.0
 // `quantacal fit`: the fit record of a fitted card, and one-sigma bands from its
 // covariance.
-#include "fit_engine.h"
+#include <quantacal/fit/fit.h>
 
-#include <quantacal/exceptions.h>
+#include <quantacal/common/exceptions.h>
 
 #include <yaml-cpp/yaml.h>
 

@@ -1,6 +1,6 @@
 // SPDX-License-Identifier: Apache-2.0
 /**
- * @file fit_engine.h
+ * @file fit.h
  * @brief The engine of `quantacal fit`: measured data, free parameters, a
  *        GSL nonlinear least-squares fit, and the fitted card.
  *
@@ -14,10 +14,10 @@
  * It is a library (quantacal_fit) linked by the command and by the tests; it
  * is the only part of quantacal that links GSL.
  */
-#ifndef QUANTACAL_CLI_FIT_ENGINE_H
-#define QUANTACAL_CLI_FIT_ENGINE_H
+#ifndef QUANTACAL_FIT_FIT_H
+#define QUANTACAL_FIT_FIT_H
 
-#include <quantacal/cards/material.h>
+#include <quantacal/material/material.h>
 #include <quantacal/models/metal_conductivity.h>
 
 #include <cstddef>

@@ -1,9 +1,10 @@
 // SPDX-License-Identifier: Apache-2.0
 // `quantacal fit`: free-parameter names and the GSL nonlinear least-squares fit.
-#include "fit_engine.h"
 #include "fit_detail.h"
+#include <quantacal/common/text.h>
+#include <quantacal/fit/fit.h>
 
-#include <quantacal/exceptions.h>
+#include <quantacal/common/exceptions.h>
 
 #include <gsl/gsl_blas.h>
 #include <gsl/gsl_errno.h>
@@ -161,7 +162,7 @@ resolve_free_parameters(const Material& material, const std::vector<std::string>
       }
     }
     if (!found) {
-      std::string hint = detail::did_you_mean(raw, choices);
+      std::string hint = quantacal::did_you_mean(raw, choices);
       if (raw.rfind("conductivity.", 0) == 0 && !metal)
         hint += " (the card's conductivity is of kind '" +
                 material.data().conductivity->kind() +

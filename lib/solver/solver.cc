@@ -28,9 +28,9 @@
 #include "report.h"
 
 #include <quantacal/cards/card.h>
-#include <quantacal/exceptions.h>
+#include <quantacal/common/exceptions.h>
 #include <quantacal/fe/material_field.h>
-#include <quantacal/fe/solver.h>
+#include <quantacal/solver/solver.h>
 
 #include <deal.II/base/conditional_ostream.h>
 #include <deal.II/base/index_set.h>

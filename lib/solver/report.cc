@@ -2,7 +2,7 @@
 // Output files of a run: CSV histories, the summary and the cooling-curve plot.
 #include "report.h"
 
-#include <quantacal/exceptions.h>
+#include <quantacal/common/exceptions.h>
 
 #include <algorithm>
 #include <cmath>

@@ -3,8 +3,8 @@
 // No deal.II here, so this translation unit compiles quickly.
 #include <quantacal/cards/card.h>
 #include <quantacal/cards/units.h>
-#include <quantacal/exceptions.h>
-#include <quantacal/fe/solver.h>
+#include <quantacal/common/exceptions.h>
+#include <quantacal/solver/solver.h>
 
 #include <yaml-cpp/yaml.h>
 
