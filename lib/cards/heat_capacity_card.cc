@@ -211,7 +211,9 @@ std::vector<ContributionPtr> read_heat_capacity(CardReader& reader,
     const YAML::Node item = list[i];
     try {
       contributions.push_back(read_contribution(reader, item, p, basics));
-    } catch (const std::invalid_argument& e) {
+    } catch (const InputError& e) {
+      if (!e.file().empty() || e.line() > 0)
+        throw; // already located by the reader
       // The model layer's own check of a parameter (Boost.Math style message).
       reader.fail(item, p, "", e.what());
     }

@@ -9,6 +9,7 @@
 
 #include <quantacal/cards/units.h>
 #include <quantacal/common/constants.h>
+#include <quantacal/common/exceptions.h>
 
 #include <algorithm>
 #include <cctype>
@@ -106,7 +107,7 @@ public:
 
 private:
   [[noreturn]] void fail(const std::string& what) const {
-    throw std::invalid_argument("unit \"" + text_ + "\": " + what);
+    throw InputError::argument("", "", "", "unit \"" + text_ + "\": " + what);
   }
 
   void skip_space() {
@@ -328,9 +329,9 @@ double parse_number(const std::string& text) {
   double value = 0.0;
   const auto r = std::from_chars(first, last, value);
   if (r.ec != std::errc() || r.ptr != last || first == last)
-    throw std::invalid_argument("\"" + text + "\" is not a number");
+    throw InputError::argument("", "", "", "\"" + text + "\" is not a number");
   if (!std::isfinite(value))
-    throw std::invalid_argument("\"" + text + "\" is not a finite number");
+    throw InputError::argument("", "", "", "\"" + text + "\" is not a finite number");
   return value;
 }
 
@@ -347,11 +348,13 @@ Quantity parse_quantity(const std::string& text) {
   double number = 0.0;
   const auto r = std::from_chars(first, last, number);
   if (r.ec == std::errc::result_out_of_range)
-    throw std::invalid_argument("\"" + text + "\": number out of range");
+    throw InputError::argument("", "", "", "\"" + text + "\": number out of range");
   if (r.ec != std::errc() || first == last)
-    throw std::invalid_argument("\"" + text + "\" does not start with a number");
+    throw InputError::argument("", "", "",
+                               "\"" + text + "\" does not start with a number");
   if (!std::isfinite(number))
-    throw std::invalid_argument("\"" + text + "\": NaN and infinity are not allowed");
+    throw InputError::argument("", "", "",
+                               "\"" + text + "\": NaN and infinity are not allowed");
   std::string unit(r.ptr, last);
   while (!unit.empty() && (unit.back() == ' ' || unit.back() == '\t'))
     unit.pop_back();
@@ -368,7 +371,7 @@ Quantity parse_quantity(const std::string& text) {
   try {
     u = parser.parse();
   } catch (const std::invalid_argument& e) {
-    throw std::invalid_argument("\"" + text + "\": " + e.what());
+    throw InputError::argument("", "", "", "\"" + text + "\": " + e.what());
   }
   q.dimension = u.dimension;
   if (parser.only_celsius()) {
@@ -378,7 +381,8 @@ Quantity parse_quantity(const std::string& text) {
     q.value = number * u.scale;
   }
   if (!std::isfinite(q.value))
-    throw std::invalid_argument("\"" + text + "\": value out of range in SI units");
+    throw InputError::argument("", "", "",
+                               "\"" + text + "\": value out of range in SI units");
   return q;
 }
 
@@ -388,8 +392,9 @@ double parse_quantity(const std::string& text, const Dimension& expected) {
     const std::string found = q.dimension == dimension::dimensionless()
                                   ? "a plain number without a unit"
                                   : detail::dimension_description(q.dimension);
-    throw std::invalid_argument("expected " + detail::dimension_description(expected) +
-                                " but found " + found);
+    throw InputError::argument("", "", "",
+                               "expected " + detail::dimension_description(expected) +
+                                   " but found " + found);
   }
   return q.value;
 }

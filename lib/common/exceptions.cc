@@ -29,9 +29,24 @@ std::string card_message(const std::string& file, int line, int column,
 
 InputError::InputError(std::string file, int line, int column, std::string field,
                        std::string value, std::string expected)
-    : std::runtime_error(card_message(file, line, column, field, value, expected)),
+    : std::invalid_argument(card_message(file, line, column, field, value, expected)),
       file_(std::move(file)), line_(line), column_(column), field_(std::move(field)),
       value_(std::move(value)), expected_(std::move(expected)) {}
+
+InputError::InputError(Message message, std::string field, std::string value,
+                       std::string expected)
+    : std::invalid_argument(message.text), line_(0), column_(0), field_(std::move(field)),
+      value_(std::move(value)), expected_(std::move(expected)) {}
+
+InputError InputError::argument(const std::string& function, std::string field,
+                                std::string value, std::string expected) {
+  std::string text = function.empty() ? std::string() : function + ": ";
+  if (!field.empty())
+    text += field + " = " + value + ": expected ";
+  text += expected;
+  return InputError(Message{std::move(text)}, std::move(field), std::move(value),
+                    std::move(expected));
+}
 
 RangeError::RangeError(std::string function, std::string subject, std::string condition,
                        double value, std::string unit)

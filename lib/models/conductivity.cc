@@ -98,14 +98,16 @@ ConductivityPtr make_constant_conductivity(double value) {
 ConductivityPtr make_table_conductivity(std::vector<double> temperatures,
                                         std::vector<double> values) {
   if (temperatures.size() != values.size())
-    throw std::invalid_argument(
+    throw InputError::argument(
+        "", "", "",
         "conductivity table: " + std::to_string(temperatures.size()) +
-        " temperatures but " + std::to_string(values.size()) +
-        " values: expected one value per temperature");
+            " temperatures but " + std::to_string(values.size()) +
+            " values: expected one value per temperature");
   if (temperatures.size() < 2)
-    throw std::invalid_argument(
+    throw InputError::argument(
+        "", "", "",
         "conductivity table: " + std::to_string(temperatures.size()) +
-        " points: expected at least 2");
+            " points: expected at least 2");
   for (std::size_t i = 0; i < temperatures.size(); ++i) {
     const std::string ti = "temperatures[" + std::to_string(i) + "]";
     detail::require_positive("conductivity table", ti, temperatures[i], "K");

@@ -67,7 +67,8 @@ void check_dilation(const Dilation& d) {
 ContributionPtr make_scaled(std::shared_ptr<const HeatCapacityModel> component,
                             double mole_fraction) {
   if (!component)
-    throw std::invalid_argument("scaled: component: expected a model, got none");
+    throw InputError::argument("", "", "",
+                               "scaled: component: expected a model, got none");
   if (!std::isfinite(mole_fraction) || !(mole_fraction > 0.0) || !(mole_fraction <= 1.0))
     detail::invalid_parameter("scaled", "mole_fraction", mole_fraction, "1",
                               "0 < x <= 1");
@@ -80,19 +81,21 @@ HeatCapacityModel::HeatCapacityModel(std::string name,
     : name_(std::move(name)), contributions_(std::move(contributions)),
       dilation_(std::move(dilation)) {
   if (contributions_.empty())
-    throw std::invalid_argument(name_ +
-                                ": heat capacity: expected at least one contribution");
+    throw InputError::argument(
+        "", "", "", name_ + ": heat capacity: expected at least one contribution");
   for (std::size_t i = 0; i < contributions_.size(); ++i)
     if (!contributions_[i])
-      throw std::invalid_argument(name_ + ": heat capacity contribution " +
-                                  std::to_string(i) +
-                                  ": expected a contribution, got none");
+      throw InputError::argument("", "", "",
+                                 name_ + ": heat capacity contribution " +
+                                     std::to_string(i) +
+                                     ": expected a contribution, got none");
   if (dilation_)
     check_dilation(*dilation_);
   if (!(lower_temperature() < upper_temperature()))
-    throw std::invalid_argument(
+    throw InputError::argument(
+        "", "", "",
         name_ + ": the contributions' temperature ranges do not overlap (" +
-        domain_condition(lower_temperature(), upper_temperature()) + ")");
+            domain_condition(lower_temperature(), upper_temperature()) + ")");
 }
 
 double HeatCapacityModel::lower_temperature() const {
@@ -124,8 +127,10 @@ HeatCapacityModel
 HeatCapacityModel::with_contribution(std::size_t index,
                                      ContributionPtr replacement) const {
   if (index >= contributions_.size())
-    throw std::out_of_range(name_ + ": contribution index " + std::to_string(index) +
-                            ": expected < " + std::to_string(contributions_.size()));
+    throw InputError::argument("", "", "",
+                               name_ + ": contribution index " + std::to_string(index) +
+                                   ": expected < " +
+                                   std::to_string(contributions_.size()));
   std::vector<ContributionPtr> terms = contributions_;
   terms[index] = std::move(replacement);
   return HeatCapacityModel(name_, std::move(terms), dilation_);

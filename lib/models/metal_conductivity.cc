@@ -105,8 +105,9 @@ double bloch_grueneisen_shape(double temperature, double theta) noexcept {
 void require(bool ok, const std::string& name, double value,
              const std::string& expected) {
   if (!ok)
-    throw std::invalid_argument("quantacal::MetalConductivity: " + name + " = " +
-                                format_double(value) + ": expected " + expected);
+    throw InputError::argument("", "", "",
+                               "quantacal::MetalConductivity: " + name + " = " +
+                                   format_double(value) + ": expected " + expected);
 }
 
 void check_temperature(double temperature, const char* function) {
@@ -187,10 +188,11 @@ MetalConductivity::MetalConductivity(const MetalConductivityParameters& p) : inp
   const bool by_rrr = p.rrr != 0.0;
   const bool by_rho = p.residual_resistivity != 0.0;
   if (by_rrr == by_rho)
-    throw std::invalid_argument(
+    throw InputError::argument(
+        "", "", "",
         "quantacal::MetalConductivity: exactly one of rrr and rho_0 "
         "must be given (got " +
-        std::string(by_rrr ? "both" : "neither") + ")");
+            std::string(by_rrr ? "both" : "neither") + ")");
   phonon_lorenz_ =
       p.phonon_lorenz_number > 0.0 ? p.phonon_lorenz_number : p.lorenz_number;
 
@@ -329,9 +331,10 @@ MetalConductivity::with_parameter(const std::string& name, double value) const {
   else if (name == "lattice_umklapp")
     p.lattice_umklapp = value;
   else
-    throw std::invalid_argument("quantacal::MetalConductivity::with_parameter: unknown "
-                                "parameter '" +
-                                name + "'");
+    throw InputError::argument("", "", "",
+                               "quantacal::MetalConductivity::with_parameter: unknown "
+                               "parameter '" +
+                                   name + "'");
   return std::make_shared<const MetalConductivity>(p);
 }
 

@@ -3,6 +3,7 @@
 #include "monotone_cubic.h"
 #include "validation.h"
 
+#include <quantacal/common/exceptions.h>
 #include <quantacal/models/contribution.h>
 
 #include <algorithm>
@@ -173,12 +174,15 @@ void check_below(const std::string& kind, const LowerExtension& below) {
 ContributionPtr make_tabulated(std::vector<double> temperatures,
                                std::vector<double> capacities, LowerExtension below) {
   if (temperatures.size() != capacities.size())
-    throw std::invalid_argument("tabulated: " + std::to_string(temperatures.size()) +
-                                " temperatures but " + std::to_string(capacities.size()) +
-                                " capacities: expected one capacity per temperature");
+    throw InputError::argument("", "", "",
+                               "tabulated: " + std::to_string(temperatures.size()) +
+                                   " temperatures but " +
+                                   std::to_string(capacities.size()) +
+                                   " capacities: expected one capacity per temperature");
   if (temperatures.size() < 2)
-    throw std::invalid_argument("tabulated: " + std::to_string(temperatures.size()) +
-                                " points: expected at least 2");
+    throw InputError::argument("", "", "",
+                               "tabulated: " + std::to_string(temperatures.size()) +
+                                   " points: expected at least 2");
   for (std::size_t i = 0; i < temperatures.size(); ++i) {
     const std::string ti = "temperatures[" + std::to_string(i) + "]";
     detail::require_positive("tabulated", ti, temperatures[i], "K");
@@ -198,8 +202,9 @@ ContributionPtr make_tabulated(std::vector<double> temperatures,
 ContributionPtr make_shomate(const std::vector<double>& coefficients, double t_low,
                              double t_high, LowerExtension below) {
   if (coefficients.size() != 5)
-    throw std::invalid_argument("shomate: " + std::to_string(coefficients.size()) +
-                                " coefficients: expected 5 (A, B, C, D, E)");
+    throw InputError::argument("", "", "",
+                               "shomate: " + std::to_string(coefficients.size()) +
+                                   " coefficients: expected 5 (A, B, C, D, E)");
   static const char* names[] = {"A", "B", "C", "D", "E"};
   for (int i = 0; i < 5; ++i)
     detail::require_finite("shomate", names[i], coefficients[i], "J/mol/K");

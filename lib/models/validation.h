@@ -1,7 +1,7 @@
 // SPDX-License-Identifier: Apache-2.0
 // Parameter checks of the make_* factories (internal to the model layer).
-// Each failure is a std::invalid_argument whose text names the contribution,
-// the parameter, its value with unit and what is expected, e.g.
+// Each failure is an InputError (a std::invalid_argument) whose text names the
+// contribution, the parameter, its value with unit and what is expected, e.g.
 //   "debye: theta_D = -3 K: expected > 0 K"
 // The card loader turns it into a located CardError.
 #ifndef QUANTACAL_LIB_MODELS_VALIDATION_H
@@ -24,9 +24,7 @@ inline std::string with_unit(const std::string& number, const std::string& unit)
                                            const std::string& name, double value,
                                            const std::string& unit,
                                            const std::string& expected) {
-  throw std::invalid_argument(kind + ": " + name + " = " +
-                              with_unit(format_double(value), unit) + ": expected " +
-                              expected);
+  throw InputError::argument(kind, name, with_unit(format_double(value), unit), expected);
 }
 
 /** Requires a finite value > 0. */
@@ -59,8 +57,8 @@ inline void require_finite(const std::string& kind, const std::string& name, dou
 [[noreturn]] inline void unknown_parameter(const std::string& kind,
                                            const std::string& name,
                                            const std::string& known) {
-  throw std::invalid_argument(kind + ": no parameter named \"" + name +
-                              "\" (parameters: " + known + ")");
+  throw InputError::argument(
+      kind, "", "", "no parameter named \"" + name + "\" (parameters: " + known + ")");
 }
 
 } // namespace detail

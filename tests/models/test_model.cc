@@ -114,7 +114,7 @@ TEST(HeatCapacityModel, SumsTermsAndUnitesBreakpoints) {
   EXPECT_EQ(w.contributions()[0]->parameters()[0].value, 300.0);
   EXPECT_NE(w.evaluate(50.0).capacity, m.evaluate(50.0).capacity);
   EXPECT_EQ(w.contributions()[1], el);
-  EXPECT_THROW(m.with_contribution(3, debye), std::out_of_range);
+  EXPECT_THROW(m.with_contribution(3, debye), quantacal::InputError);
 }
 
 TEST(HeatCapacityModel, RejectsBadConstruction) {

@@ -54,7 +54,7 @@ struct Quantity {
 
 /**
  * Parses "<number> <unit>" (the number locale-free; NaN and inf rejected).
- * @throws std::invalid_argument with a message saying what is wrong
+ * @throws InputError with a message saying what is wrong
  */
 Quantity parse_quantity(const std::string& text);
 
@@ -62,7 +62,7 @@ Quantity parse_quantity(const std::string& text);
  * Parses and checks the dimension, returning the SI value.
  * @param text e.g. "343 K", "25 degC", "0.695 mJ/mol/K^2"
  * @param expected the required dimension
- * @throws std::invalid_argument naming the expected and found dimensions
+ * @throws InputError naming the expected and found dimensions
  */
 double parse_quantity(const std::string& text, const Dimension& expected);
 

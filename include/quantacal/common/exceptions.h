@@ -3,8 +3,9 @@
  * @file exceptions.h
  * @brief The exception types of quantacal: one per kind of failure.
  *
- * Every failure the library reports is one of three kinds, each a
- * std::runtime_error whose what() is built from members that carry the
+ * Every failure the library reports is one of three kinds, each a standard
+ * exception (InputError a std::invalid_argument, the others
+ * std::runtime_error) whose what() is built from members that carry the
  * context, so a caller can both print a message and act on its parts:
  *
  *  - InputError: an input is malformed or non-physical: a card, a case file,
@@ -40,7 +41,7 @@ namespace quantacal {
  * `materials/copper.yaml:14:12: heat_capacity[0].theta = "-343 K": expected a temperature
  * > 0 K`
  */
-class InputError : public std::runtime_error {
+class InputError : public std::invalid_argument {
 public:
   /**
    * @param file path of the file as given by the user ("" if none)
@@ -53,6 +54,18 @@ public:
   InputError(std::string file, int line, int column, std::string field, std::string value,
              std::string expected);
 
+  /**
+   * A bad parameter of a library call (no file):
+   * `function: field = value: expected` (`function: expected` if @p field is empty;
+   * without `function: ` if @p function is empty).
+   * @param function the call or object kind, e.g. "debye" or "Material" (may be "")
+   * @param field parameter name ("" if the message names it)
+   * @param value the offending value as text, with its unit ("" if none)
+   * @param expected what was expected, or what is wrong, in words
+   */
+  static InputError argument(const std::string& function, std::string field,
+                             std::string value, std::string expected);
+
   const std::string& file() const noexcept { return file_; }
   int line() const noexcept { return line_; }
   int column() const noexcept { return column_; }
@@ -61,6 +74,11 @@ public:
   const std::string& expected() const noexcept { return expected_; }
 
 private:
+  struct Message {
+    std::string text;
+  };
+  InputError(Message message, std::string field, std::string value, std::string expected);
+
   std::string file_;
   int line_;
   int column_;

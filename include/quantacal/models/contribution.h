@@ -71,7 +71,7 @@ public:
    * A copy with one parameter changed.
    * @param name a name from parameters()
    * @param value the new SI value
-   * @throws std::invalid_argument for an unknown name or a non-physical value
+   * @throws InputError for an unknown name or a non-physical value
    */
   virtual std::shared_ptr<const Contribution> with_parameter(const std::string& name,
                                                              double value) const = 0;

@@ -57,7 +57,7 @@ public:
    * @param name the material's name (for messages)
    * @param contributions the additive terms (at least one)
    * @param dilation optional C_p - C_v correction
-   * @throws std::invalid_argument if there is no term, a term is null, the terms'
+   * @throws InputError if there is no term, a term is null, the terms'
    *         domains do not overlap, or the dilation parameters are non-physical.
    *         (A Nernst-Lindemann dilation with 4 A T C_v >= 1 is found lazily:
    *         evaluate() then throws NumericalError naming the material and T.)

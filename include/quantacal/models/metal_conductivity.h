@@ -89,7 +89,7 @@ class MetalConductivity : public ConductivityModel {
 public:
   /**
    * @param parameters the inputs (SI)
-   * @throws std::invalid_argument naming the parameter for a non-physical value,
+   * @throws InputError naming the parameter for a non-physical value,
    *         for both or neither of rrr and residual_resistivity, or for a Wilson
    *         ratio so small that the thermal resistivity turns negative
    */
@@ -157,7 +157,7 @@ public:
    * "lattice_umklapp" even when unset).
    * @param name card key
    * @param value SI value
-   * @throws std::invalid_argument for an unknown name or a non-physical value
+   * @throws InputError for an unknown name or a non-physical value
    */
   std::shared_ptr<const MetalConductivity> with_parameter(const std::string& name,
                                                           double value) const;
@@ -178,7 +178,7 @@ private:
 /**
  * Builds a MetalConductivity.
  * @param parameters the inputs (SI)
- * @throws std::invalid_argument as the constructor
+ * @throws InputError as the constructor
  */
 std::shared_ptr<const MetalConductivity>
 make_metal_conductivity(const MetalConductivityParameters& parameters);
