@@ -9,6 +9,7 @@
 #include <quantacal/cards/card.h>
 #include <quantacal/cards/units.h>
 #include <quantacal/common/exceptions.h>
+#include <quantacal/material/equilibrium.h>
 #include <quantacal/material/material.h>
 #include <quantacal/models/conductivity.h>
 #include <quantacal/models/contribution.h>

@@ -12,7 +12,8 @@ namespace {
 
 void require(bool condition, const std::string& name, const std::string& what) {
   if (!condition)
-    throw std::invalid_argument(
+    throw InputError::argument(
+        "", "", "",
         "quantacal::Material: " + (name.empty() ? "<unnamed>" : name) + ": " + what);
 }
 
@@ -94,6 +95,60 @@ ThermalState Material::thermal_exact(double temperature, Basis basis) const {
   ThermalState s = data_.model->evaluate(temperature);
   s.energy -= energy_offset_;
   return basis_factor(basis) * s;
+}
+
+void Material::thermal(const double* temperatures, std::size_t n, Basis basis,
+                       double* energy, double* capacity,
+                       double* capacity_derivative) const {
+  for (std::size_t i = 0; i < n; ++i)
+    check_temperature(temperatures[i], "quantacal::Material::thermal");
+  table().evaluate(temperatures, n, energy, capacity, capacity_derivative);
+  const double factor = basis_factor(basis);
+  const double offset = energy_offset_;
+  if (energy)
+    for (std::size_t i = 0; i < n; ++i)
+      energy[i] = factor * (energy[i] - offset);
+  if (capacity)
+    for (std::size_t i = 0; i < n; ++i)
+      capacity[i] *= factor;
+  if (capacity_derivative)
+    for (std::size_t i = 0; i < n; ++i)
+      capacity_derivative[i] *= factor;
+}
+
+double Material::temperature_from_energy(double energy, Basis basis) const {
+  const PropertyTable& t = table();
+  const double factor = basis_factor(basis);
+  // Molar energy on the table's own scale (the offset undone).
+  const double molar = energy / factor + energy_offset_;
+  const double lowest = t.evaluate(t.lower_temperature()).energy;
+  const double highest = t.evaluate(t.upper_temperature()).energy;
+  if (!(std::isfinite(energy) && molar >= lowest && molar <= highest)) {
+    static const char* units[] = {"J/kg", "J/mol", "J/m^3"};
+    const char* unit = units[static_cast<int>(basis)];
+    throw RangeError(
+        "quantacal::Material::temperature_from_energy", data_.name,
+        format_double(factor * (lowest - energy_offset_)) + " " + unit +
+            " <= e <= " + format_double(factor * (highest - energy_offset_)) + " " +
+            unit + " (the valid range " + format_double(data_.lower_temperature) +
+            " K to " + format_double(data_.upper_temperature) + " K)",
+        energy, unit);
+  }
+  return t.temperature_from_energy(molar);
+}
+
+void Material::conductivity(const double* temperatures, std::size_t n,
+                            double* conductivity, double* derivative) const {
+  for (std::size_t i = 0; i < n; ++i)
+    check_temperature(temperatures[i], "quantacal::Material::conductivity");
+  const ConductivityModel& model = *data_.conductivity;
+  for (std::size_t i = 0; i < n; ++i) {
+    const ConductivityValue k = model.evaluate(temperatures[i]);
+    if (conductivity)
+      conductivity[i] = k.value;
+    if (derivative)
+      derivative[i] = k.derivative;
+  }
 }
 
 ConductivityValue Material::conductivity(double temperature) const {

@@ -10,6 +10,7 @@
 #include <quantacal/models/heat_capacity_model.h>
 #include <quantacal/tables/property_table.h>
 
+#include <cstddef>
 #include <memory>
 #include <mutex>
 #include <string>
@@ -69,7 +70,8 @@ struct MaterialData {
  */
 class Material {
 public:
-  /** @throws std::invalid_argument if a field is missing or non-physical */
+  /** @throws InputError (a std::invalid_argument) if a field is missing or non-physical
+   */
   explicit Material(MaterialData data);
 
   const std::string& name() const noexcept { return data_.name; }
@@ -104,8 +106,41 @@ public:
   /** Same from the exact model (slow; for checks and `--exact`). */
   ThermalState thermal_exact(double temperature, Basis basis = Basis::mass) const;
 
+  /**
+   * Batch thermal state from the table on @p basis: the energy offset and the
+   * basis factor are applied here, once per call, giving the same numbers as
+   * thermal(T, basis) point by point, bit for bit. Output arrays may be null to
+   * skip them.
+   * @param temperatures n temperatures, K, inside the valid range
+   * @param energy e relative to the reference temperature (J/kg, J/mol or J/m^3)
+   * @param capacity c_p = de/dT on the same basis
+   * @param capacity_derivative dc_p/dT on the same basis
+   * @throws RangeError naming the first temperature outside the valid range, NaN or
+   *         inf (outputs are then unspecified)
+   */
+  void thermal(const double* temperatures, std::size_t n, Basis basis, double* energy,
+               double* capacity, double* capacity_derivative) const;
+
+  /**
+   * Inverse of thermal(T, basis).energy, solved exactly on the table's piecewise
+   * polynomial: the T at which the returned energy equals @p energy.
+   * @param energy relative to the reference temperature, on @p basis
+   * @return T, K, inside the valid range
+   * @throws RangeError if @p energy lies outside [e(lower), e(upper)] of the valid
+   *         range (the condition states that interval in the basis' unit)
+   */
+  double temperature_from_energy(double energy, Basis basis = Basis::mass) const;
+
   /** k (W/m/K) and dk/dT at @p temperature; RangeError outside the valid range. */
   ConductivityValue conductivity(double temperature) const;
+
+  /**
+   * Batch conductivity: k (W/m/K) and dk/dT (W/m/K^2) at n temperatures; output
+   * arrays may be null to skip them.
+   * @throws RangeError naming the first temperature outside the valid range
+   */
+  void conductivity(const double* temperatures, std::size_t n, double* conductivity,
+                    double* derivative) const;
 
   /** Energy offset subtracted so that U(reference temperature) = 0, J/mol. */
   double energy_offset() const noexcept { return energy_offset_; }
