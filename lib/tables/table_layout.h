@@ -13,9 +13,13 @@
 #ifndef QUANTACAL_LIB_TABLES_TABLE_LAYOUT_H
 #define QUANTACAL_LIB_TABLES_TABLE_LAYOUT_H
 
+#include <quantacal/tables/property_table.h>
+
 #include <algorithm>
 #include <cstdint>
 #include <cstring>
+#include <string>
+#include <vector>
 
 namespace quantacal::detail {
 
@@ -93,6 +97,26 @@ inline void evaluate_segment(const TableSegment& s, double t, double inv_h,
  * kernel could run (both paths must give the same numbers). Thread-safe.
  */
 void force_portable_batch(bool on) noexcept;
+
+/** Everything a built table holds. */
+struct TableData {
+  std::string name;
+  double lower = 0.0;        ///< K
+  double upper = 0.0;        ///< K
+  double upper_energy = 0.0; ///< U(upper) of the interpolant, J/mol
+  int exponent0 = 0;         ///< biased IEEE exponent of lower
+  std::vector<TableOctave> octaves;
+  std::vector<TableCell> cells;
+  std::vector<TableSegment> segments;
+  std::vector<double> segment_start; ///< K, for the inverse and node_temperatures()
+  TableStatistics statistics;
+};
+
+/**
+ * Builds the table data of @p model with error control (table_builder.cc);
+ * PropertyTable::build wraps it. Errors as PropertyTable::build.
+ */
+TableData build_table_data(const ThermalModel& model, const TableOptions& options);
 
 } // namespace quantacal::detail
 
