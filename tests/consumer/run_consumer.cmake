@@ -71,3 +71,21 @@ if(cp LESS low OR cp GREATER high)
 endif()
 message(STATUS "consumer test: ${card}: cp(300 K) = ${cp} J/kg/K "
                "(reference ${reference_cp} J/kg/K, CRC Handbook)")
+
+# Equal bodies of one card at 300 K and 400 K meet near 350 K (c_p varies by a few
+# per cent over the span, so within 2 K; calorimetry, analytic); the inverse
+# returns 350 K.
+if(NOT step_output MATCHES "T\\(e\\(350 K\\)\\) = ([-+0-9.eE]+) K")
+  message(FATAL_ERROR "consumer test: no inverse line in: ${step_output}")
+endif()
+set(back "${CMAKE_MATCH_1}")
+if(back LESS 349.999999 OR back GREATER 350.000001)
+  message(FATAL_ERROR "consumer test: T(e(350 K)) = ${back} K")
+endif()
+if(NOT step_output MATCHES "equilibrium = ([-+0-9.eE]+) K")
+  message(FATAL_ERROR "consumer test: no equilibrium line in: ${step_output}")
+endif()
+set(final "${CMAKE_MATCH_1}")
+if(final LESS 348 OR final GREATER 352)
+  message(FATAL_ERROR "consumer test: equilibrium = ${final} K, expected 350 K +- 2 K")
+endif()
