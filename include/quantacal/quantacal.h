@@ -7,6 +7,8 @@
 #define QUANTACAL_QUANTACAL_H
 
 #include <quantacal/cards/card.h>
+#include <quantacal/cards/card_parameters.h>
+#include <quantacal/cards/card_writer.h>
 #include <quantacal/cards/units.h>
 #include <quantacal/common/exceptions.h>
 #include <quantacal/material/equilibrium.h>

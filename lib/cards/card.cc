@@ -4,6 +4,7 @@
 #include <quantacal/common/text.h>
 
 #include "card_reader.h"
+#include "fit_record_reader.h"
 #include "units_detail.h"
 
 #include <quantacal/common/exceptions.h>
@@ -363,11 +364,13 @@ MaterialPtr load_text(const std::string& text, const std::string& file,
   if (meas.IsDefined())
     read_measurements(reader, meas, "measurements", data);
 
+  MaterialPtr material;
   try {
-    return std::make_shared<const Material>(std::move(data));
+    material = std::make_shared<const Material>(std::move(data));
   } catch (const std::invalid_argument& e) {
     throw CardError(file, 0, 0, "", "", e.what());
   }
+  return with_fit_record(reader, root, std::move(material));
 }
 
 MaterialPtr load_file(const std::string& path, LoadChain& chain) {

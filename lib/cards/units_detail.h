@@ -15,7 +15,7 @@ namespace quantacal::detail {
 /** "a temperature (K, mK or degC)", "a molar energy (e.g. J/mol)", ... */
 std::string dimension_description(const Dimension& d);
 
-/** A whole string as a finite number, locale-free; std::invalid_argument otherwise. */
+/** A whole string as a finite number, locale-free; InputError otherwise. */
 double parse_number(const std::string& text);
 
 } // namespace quantacal::detail

@@ -1,14 +1,18 @@
 // SPDX-License-Identifier: Apache-2.0
 // `quantacal fit`: fits card parameters to measured c_p, energy-increment and k points.
 #include "command_registry.h"
+#include "gnuplot.h"
 #include "options.h"
 #include <quantacal/fit/fit.h>
 
 #include <quantacal/cards/card.h>
+#include <quantacal/cards/card_writer.h>
 #include <quantacal/common/exceptions.h>
 
+#include <cerrno>
+#include <cstdlib>
+#include <cstring>
 #include <filesystem>
-#include <fstream>
 #include <iostream>
 #include <sstream>
 #include <string>
@@ -77,28 +81,34 @@ std::vector<std::string> split_names(const std::string& text) {
   return out;
 }
 
-std::string read_file(const std::string& path) {
-  std::ifstream in(path, std::ios::binary);
-  if (!in)
-    throw CardError(path, 0, 0, "", "", "cannot open the card file");
-  std::ostringstream text;
-  text << in.rdbuf();
-  return text.str();
-}
-
-void write_atomically(const std::string& path, const std::string& text) {
+/**
+ * Draws the plot: the library writes the script and data into a temporary folder,
+ * gnuplot writes the SVG beside @p svg_path, renamed over it when complete.
+ * @return "" on success, else why no plot was written
+ */
+std::string draw_plot(const fit::FitResult& result, const std::string& svg_path) {
   namespace fs = std::filesystem;
-  const std::string tmp = path + ".tmp";
-  {
-    std::ofstream out(tmp, std::ios::binary | std::ios::trunc);
-    if (!out)
-      throw std::ios_base::failure("cannot write " + tmp);
-    out << text;
-    out.close();
-    if (!out)
-      throw std::ios_base::failure("cannot write " + tmp);
+  std::error_code ec;
+  std::string folder = (fs::temp_directory_path(ec) / "quantacal-fit-XXXXXX").string();
+  if (ec || ::mkdtemp(folder.data()) == nullptr)
+    return "cannot create a temporary folder for the plot: " +
+           (ec ? ec.message() : std::string(std::strerror(errno)));
+  const std::string tmp_svg = svg_path + ".tmp";
+  std::string why;
+  try {
+    why = run_gnuplot(fit::write_plot_script(result, folder, tmp_svg));
+  } catch (const std::exception& e) {
+    why = e.what();
   }
-  fs::rename(tmp, path);
+  if (why.empty()) {
+    fs::rename(tmp_svg, svg_path, ec);
+    if (ec)
+      why = "cannot write " + svg_path + ": " + ec.message();
+  }
+  if (!why.empty())
+    fs::remove(tmp_svg, ec);
+  fs::remove_all(folder, ec);
+  return why;
 }
 
 int run_fit(std::vector<std::string> args) {
@@ -141,22 +151,20 @@ int run_fit(std::vector<std::string> args) {
     throw UsageError("option --max-iterations: expected a whole number >= 1");
   fo.max_iterations = static_cast<std::size_t>(max_iterations);
 
-  const std::string start_text = read_file(*card);
+  const std::string start_text = read_card_text(*card);
   const MaterialPtr start = load_card_from_string(start_text, *card);
   const fit::DataSet data = fit::read_data(options.positional.front());
   const auto parameters = fit::resolve_free_parameters(*start, split_names(*free));
   const fit::FitResult result = fit::fit(*start, data, parameters, fo);
-  const std::string text =
-      fit::fitted_card(start_text, *card, result, data, fo.weighting, *output);
-  // The fitted card must load: check it before anything is written.
-  (void)load_card_from_string(text, *output);
+  // Written only if it loads; the report follows, then the plot.
+  save_card(*output,
+            fit::fitted_card(start_text, *card, result, data, fo.weighting, *output));
 
   std::cout << fit::report(result, data);
   std::string plot_path = options.text("plot").value_or("");
   if (plot_path.empty())
     plot_path = std::filesystem::path(*output).replace_extension(".svg").string();
-  write_atomically(*output, text);
-  const std::string why = fit::plot(result, plot_path);
+  const std::string why = draw_plot(result, plot_path);
   if (why.empty())
     std::cout << "\nplot: " << plot_path << "\n";
   else

@@ -8,9 +8,7 @@
 #include <quantacal/common/exceptions.h>
 
 #include <cmath>
-#include <fstream>
 #include <iostream>
-#include <sstream>
 #include <string>
 #include <vector>
 
@@ -88,15 +86,6 @@ std::string band_header_for(Basis basis) {
          ",e_sigma_J_per_" + p + ",k_W_per_m_K,k_sigma_W_per_m_K\n";
 }
 
-std::string read_text(const std::string& path) {
-  std::ifstream in(path, std::ios::binary);
-  if (!in)
-    throw std::ios_base::failure("cannot read " + path);
-  std::ostringstream text;
-  text << in.rdbuf();
-  return text.str();
-}
-
 std::string range_text(const Material& material) {
   return format_double(material.lower_temperature()) +
          " K <= T <= " + format_double(material.upper_temperature()) + " K";
@@ -160,11 +149,9 @@ int run_table(const std::vector<std::string>& args) {
 
   // The whole output is built in memory and written only when every row succeeded.
   if (options.has("band")) {
-    const std::string& path = options.positional[0];
-    const fit::FitRecord record = fit::read_fit_record(read_text(path), path, *material);
     std::string out = band_header_for(basis);
     for (const double t : row_temperatures(from, to, step)) {
-      const fit::BandRow row = fit::band(*material, record, t, basis);
+      const fit::BandRow row = fit::band(*material, t, basis);
       for (const double v : {t, row.capacity, row.capacity_sigma, row.energy,
                              row.energy_sigma, row.conductivity}) {
         out += format_double(v);

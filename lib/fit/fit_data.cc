@@ -6,6 +6,7 @@
 
 #include <quantacal/common/exceptions.h>
 
+#include <algorithm>
 #include <array>
 #include <charconv>
 #include <cmath>
@@ -128,6 +129,197 @@ std::string sha256_hex(const std::string& bytes) {
   return out;
 }
 
+namespace {
+
+/** Indices into kColumns. */
+enum Column { t_col, from_col, cp_kg, cp_mol, e_kg, e_mol, k_col, sigma_col };
+
+/** The header row: its cells and, per known column, the cell index (-1 if absent). */
+struct Header {
+  std::vector<Cell> cells;
+  int line = 0;
+  std::vector<int> index;
+};
+
+/** Maps the header's cells to the known columns: unknown and duplicate names fail. */
+std::vector<int> column_indices(const Header& h, const std::string& file) {
+  std::vector<int> index(kColumns.size(), -1);
+  for (std::size_t c = 0; c < h.cells.size(); ++c) {
+    const std::string& name = h.cells[c].text;
+    const auto it = std::find(kColumns.begin(), kColumns.end(), name);
+    if (it == kColumns.end()) {
+      std::string list;
+      for (const auto& k : kColumns)
+        list += (list.empty() ? "" : ", ") + k;
+      throw CardError(file, h.line, h.cells[c].column, "header", name,
+                      "unknown column" + quantacal::did_you_mean(name, kColumns) +
+                          "; expected some of: " + list);
+    }
+    const std::size_t k = static_cast<std::size_t>(it - kColumns.begin());
+    if (index[k] >= 0)
+      throw CardError(file, h.line, h.cells[c].column, "header", name,
+                      "duplicate column");
+    index[k] = static_cast<int>(c);
+  }
+  return index;
+}
+
+/** The columns a data file needs: T_K, one value column, T_from_K with energies. */
+void check_columns(const Header& h, const std::string& file) {
+  const std::vector<int>& index = h.index;
+  if (index[t_col] < 0)
+    throw CardError(
+        file, h.line, 1, "header", "", "missing column 'T_K'" + [&] {
+          for (const auto& c : h.cells)
+            if (!quantacal::did_you_mean(c.text, {"T_K"}).empty())
+              return " (found '" + c.text + "': did you mean 'T_K'?)";
+          return std::string();
+        }());
+  if (index[cp_kg] >= 0 && index[cp_mol] >= 0)
+    throw CardError(file, h.line, h.cells[index[cp_mol]].column, "header",
+                    "cp_J_per_mol_K",
+                    "give one of cp_J_per_kg_K and cp_J_per_mol_K, not both");
+  if (index[e_kg] >= 0 && index[e_mol] >= 0)
+    throw CardError(file, h.line, h.cells[index[e_mol]].column, "header", "e_J_per_mol",
+                    "give one of e_J_per_kg and e_J_per_mol, not both");
+  if (index[cp_kg] < 0 && index[cp_mol] < 0 && index[e_kg] < 0 && index[e_mol] < 0 &&
+      index[k_col] < 0)
+    throw CardError(file, h.line, 1, "header", "",
+                    "missing a value column: expected cp_J_per_kg_K or cp_J_per_mol_K "
+                    "(or e_J_per_kg, e_J_per_mol, k_W_per_m_K)");
+  if ((index[e_kg] >= 0 || index[e_mol] >= 0) && index[from_col] < 0)
+    throw CardError(file, h.line, 1, "header", "",
+                    "missing column 'T_from_K' (the lower temperature of each energy "
+                    "increment)");
+}
+
+/** The first row that is not blank or a comment, checked as the header. */
+Header read_header(std::istream& in, int& line_number, const std::string& file) {
+  Header h;
+  std::string line;
+  while (std::getline(in, line)) {
+    ++line_number;
+    if (skipped(line))
+      continue;
+    h.cells = split(line);
+    h.line = line_number;
+    break;
+  }
+  if (h.cells.empty())
+    throw CardError(file, 0, 0, "", "",
+                    "empty data file: expected a header row naming the columns, e.g. "
+                    "\"T_K,cp_J_per_kg_K\"");
+  h.index = column_indices(h, file);
+  check_columns(h, file);
+  return h;
+}
+
+/** One data row's cells, read against the header. */
+struct Row {
+  const Header& header;
+  std::vector<Cell> cells;
+  int line = 0;
+  const std::string& file;
+
+  const Cell& cell(int k) const {
+    return cells[static_cast<std::size_t>(header.index[k])];
+  }
+
+  /** The number in column @p k; NaN for an empty cell that is not @p required. */
+  double value(int k, bool required, const char* what) const {
+    const Cell& c = cell(k);
+    if (c.text.empty()) {
+      if (required)
+        throw CardError(file, line, c.column, kColumns[k], "",
+                        std::string("empty cell: expected ") + what);
+      return std::nan("");
+    }
+    const auto v = detail::parse_double(c.text);
+    if (!v)
+      throw CardError(file, line, c.column, kColumns[k], c.text,
+                      std::string("expected a number (") + what + ")");
+    return *v;
+  }
+};
+
+/** The kind of @p p from its value column, with the checks of that kind. */
+void set_kind(DataPoint& p, const Row& row, int value_col) {
+  const Cell& vc = row.cell(value_col);
+  const auto fail = [&](const Cell& c, const std::string& column,
+                        const std::string& expected) {
+    return CardError(row.file, row.line, c.column, column, c.text, expected);
+  };
+  switch (value_col) {
+  case cp_kg:
+  case cp_mol:
+    p.kind = Observable::capacity;
+    p.per_mass = value_col == cp_kg;
+    if (!(p.value > 0.0))
+      throw fail(vc, kColumns[value_col], "expected a specific heat > 0");
+    break;
+  case e_kg:
+  case e_mol: {
+    p.kind = Observable::energy_increment;
+    p.per_mass = value_col == e_kg;
+    p.from_temperature = row.value(from_col, true, "the lower temperature in K");
+    if (!(p.from_temperature >= 0.0 && p.from_temperature < p.temperature))
+      throw fail(row.cell(from_col), "T_from_K",
+                 "expected a temperature >= 0 K and below T_K = " + row.cell(t_col).text +
+                     " K");
+    if (!(p.value > 0.0))
+      throw fail(vc, kColumns[value_col], "expected an energy increment > 0");
+    break;
+  }
+  default:
+    p.kind = Observable::conductivity;
+    if (!(p.value > 0.0))
+      throw fail(vc, kColumns[value_col], "expected a conductivity > 0 W/m/K");
+  }
+}
+
+DataPoint read_row(const Row& row, bool has_sigma) {
+  DataPoint p;
+  p.line = row.line;
+  p.temperature = row.value(t_col, true, "a temperature in K");
+  const Cell& tc = row.cell(t_col);
+  if (!(p.temperature > 0.0))
+    throw CardError(row.file, row.line, tc.column, "T_K", tc.text,
+                    "expected a temperature > 0 K");
+  int n_values = 0;
+  int value_col = -1;
+  for (int k : {cp_kg, cp_mol, e_kg, e_mol, k_col}) {
+    if (row.header.index[k] < 0)
+      continue;
+    const double v = row.value(k, false, "a measured value");
+    if (std::isnan(v))
+      continue;
+    ++n_values;
+    value_col = k;
+    p.value = v;
+  }
+  if (n_values != 1)
+    throw CardError(row.file, row.line, tc.column, "", "",
+                    n_values == 0 ? "row has no measured value (fill one of the cp, e or "
+                                    "k columns)"
+                                  : "row fills several value columns (one per row)");
+  set_kind(p, row, value_col);
+  if (has_sigma) {
+    const Cell& sc = row.cell(sigma_col);
+    const double s = row.value(sigma_col, false, "an uncertainty");
+    if (std::isnan(s))
+      throw CardError(row.file, row.line, sc.column, "sigma", "",
+                      "empty cell: expected an uncertainty > 0 (the file has a sigma "
+                      "column, so every row needs one)");
+    if (!(s > 0.0))
+      throw CardError(row.file, row.line, sc.column, "sigma", sc.text,
+                      "expected an uncertainty > 0");
+    p.sigma = s;
+  }
+  return p;
+}
+
+} // namespace
+
 DataSet read_data_from_string(const std::string& text, const std::string& file) {
   DataSet data;
   data.file = file;
@@ -135,168 +327,25 @@ DataSet read_data_from_string(const std::string& text, const std::string& file) 
   // A UTF-8 byte-order mark (spreadsheet exports) is not part of the first column name.
   const bool bom = text.compare(0, 3, "\xEF\xBB\xBF") == 0;
   std::istringstream in(bom ? text.substr(3) : text);
-  std::string line;
   int line_number = 0;
-  std::vector<std::string> header;
-  std::vector<int> header_columns;
-  int header_line = 0;
+  const Header header = read_header(in, line_number, file);
+  data.has_sigma = header.index[sigma_col] >= 0;
+  std::string line;
   while (std::getline(in, line)) {
     ++line_number;
     if (skipped(line))
       continue;
-    for (const Cell& c : split(line)) {
-      header.push_back(c.text);
-      header_columns.push_back(c.column);
-    }
-    header_line = line_number;
-    break;
-  }
-  if (header.empty())
-    throw CardError(file, 0, 0, "", "",
-                    "empty data file: expected a header row naming the columns, e.g. "
-                    "\"T_K,cp_J_per_kg_K\"");
-  // Column indices, -1 when absent.
-  std::vector<int> index(kColumns.size(), -1);
-  for (std::size_t c = 0; c < header.size(); ++c) {
-    const auto it = std::find(kColumns.begin(), kColumns.end(), header[c]);
-    if (it == kColumns.end()) {
-      std::string list;
-      for (const auto& k : kColumns)
-        list += (list.empty() ? "" : ", ") + k;
-      throw CardError(file, header_line, header_columns[c], "header", header[c],
-                      "unknown column" + quantacal::did_you_mean(header[c], kColumns) +
-                          "; expected some of: " + list);
-    }
-    const std::size_t k = static_cast<std::size_t>(it - kColumns.begin());
-    if (index[k] >= 0)
-      throw CardError(file, header_line, header_columns[c], "header", header[c],
-                      "duplicate column");
-    index[k] = static_cast<int>(c);
-  }
-  enum { t_col, from_col, cp_kg, cp_mol, e_kg, e_mol, k_col, sigma_col };
-  if (index[t_col] < 0)
-    throw CardError(
-        file, header_line, 1, "header", "", "missing column 'T_K'" + [&] {
-          for (const auto& h : header)
-            if (!quantacal::did_you_mean(h, {"T_K"}).empty())
-              return " (found '" + h + "': did you mean 'T_K'?)";
-          return std::string();
-        }());
-  if (index[cp_kg] >= 0 && index[cp_mol] >= 0)
-    throw CardError(file, header_line, header_columns[index[cp_mol]], "header",
-                    "cp_J_per_mol_K",
-                    "give one of cp_J_per_kg_K and cp_J_per_mol_K, not both");
-  if (index[e_kg] >= 0 && index[e_mol] >= 0)
-    throw CardError(file, header_line, header_columns[index[e_mol]], "header",
-                    "e_J_per_mol", "give one of e_J_per_kg and e_J_per_mol, not both");
-  if (index[cp_kg] < 0 && index[cp_mol] < 0 && index[e_kg] < 0 && index[e_mol] < 0 &&
-      index[k_col] < 0)
-    throw CardError(file, header_line, 1, "header", "",
-                    "missing a value column: expected cp_J_per_kg_K or cp_J_per_mol_K "
-                    "(or e_J_per_kg, e_J_per_mol, k_W_per_m_K)");
-  if ((index[e_kg] >= 0 || index[e_mol] >= 0) && index[from_col] < 0)
-    throw CardError(file, header_line, 1, "header", "",
-                    "missing column 'T_from_K' (the lower temperature of each energy "
-                    "increment)");
-  data.has_sigma = index[sigma_col] >= 0;
-
-  while (std::getline(in, line)) {
-    ++line_number;
-    if (skipped(line))
-      continue;
-    const std::vector<Cell> cells = split(line);
-    if (cells.size() != header.size())
-      throw CardError(file, line_number, cells.back().column, "", "",
-                      "expected " + std::to_string(header.size()) +
+    const Row row{header, split(line), line_number, file};
+    if (row.cells.size() != header.cells.size())
+      throw CardError(file, line_number, row.cells.back().column, "", "",
+                      "expected " + std::to_string(header.cells.size()) +
                           " cells (as the header) "
                           "but found " +
-                          std::to_string(cells.size()));
-    const auto cell_value = [&](int k, bool required, const char* what) -> double {
-      const Cell& c = cells[static_cast<std::size_t>(index[k])];
-      if (c.text.empty()) {
-        if (required)
-          throw CardError(file, line_number, c.column, kColumns[k], "",
-                          std::string("empty cell: expected ") + what);
-        return std::nan("");
-      }
-      const auto v = detail::parse_double(c.text);
-      if (!v)
-        throw CardError(file, line_number, c.column, kColumns[k], c.text,
-                        std::string("expected a number (") + what + ")");
-      return *v;
-    };
-    DataPoint p;
-    p.line = line_number;
-    p.temperature = cell_value(t_col, true, "a temperature in K");
-    if (!(p.temperature > 0.0))
-      throw CardError(file, line_number, cells[index[t_col]].column, "T_K",
-                      cells[index[t_col]].text, "expected a temperature > 0 K");
-    int n_values = 0;
-    int value_col = -1;
-    for (int k : {cp_kg, cp_mol, e_kg, e_mol, k_col}) {
-      if (index[k] < 0)
-        continue;
-      const double v = cell_value(k, false, "a measured value");
-      if (std::isnan(v))
-        continue;
-      ++n_values;
-      value_col = k;
-      p.value = v;
-    }
-    if (n_values != 1)
-      throw CardError(file, line_number, cells[index[t_col]].column, "", "",
-                      n_values == 0
-                          ? "row has no measured value (fill one of the cp, e or "
-                            "k columns)"
-                          : "row fills several value columns (one per row)");
-    const Cell& vc = cells[static_cast<std::size_t>(index[value_col])];
-    switch (value_col) {
-    case cp_kg:
-    case cp_mol:
-      p.kind = Observable::capacity;
-      p.per_mass = value_col == cp_kg;
-      if (!(p.value > 0.0))
-        throw CardError(file, line_number, vc.column, kColumns[value_col], vc.text,
-                        "expected a specific heat > 0");
-      break;
-    case e_kg:
-    case e_mol: {
-      p.kind = Observable::energy_increment;
-      p.per_mass = value_col == e_kg;
-      p.from_temperature = cell_value(from_col, true, "the lower temperature in K");
-      const Cell& fc = cells[static_cast<std::size_t>(index[from_col])];
-      if (!(p.from_temperature >= 0.0 && p.from_temperature < p.temperature))
-        throw CardError(file, line_number, fc.column, "T_from_K", fc.text,
-                        "expected a temperature >= 0 K and below T_K = " +
-                            cells[index[t_col]].text + " K");
-      if (!(p.value > 0.0))
-        throw CardError(file, line_number, vc.column, kColumns[value_col], vc.text,
-                        "expected an energy increment > 0");
-      break;
-    }
-    default:
-      p.kind = Observable::conductivity;
-      if (!(p.value > 0.0))
-        throw CardError(file, line_number, vc.column, kColumns[value_col], vc.text,
-                        "expected a conductivity > 0 W/m/K");
-    }
-    if (data.has_sigma) {
-      const double s = cell_value(sigma_col, false, "an uncertainty");
-      if (!std::isnan(s)) {
-        if (!(s > 0.0))
-          throw CardError(file, line_number, cells[index[sigma_col]].column, "sigma",
-                          cells[index[sigma_col]].text, "expected an uncertainty > 0");
-        p.sigma = s;
-      } else {
-        throw CardError(file, line_number, cells[index[sigma_col]].column, "sigma", "",
-                        "empty cell: expected an uncertainty > 0 (the file has a sigma "
-                        "column, so every row needs one)");
-      }
-    }
-    data.points.push_back(p);
+                          std::to_string(row.cells.size()));
+    data.points.push_back(read_row(row, data.has_sigma));
   }
   if (data.points.empty())
-    throw CardError(file, header_line, 1, "", "", "no data rows after the header");
+    throw CardError(file, header.line, 1, "", "", "no data rows after the header");
   return data;
 }
 

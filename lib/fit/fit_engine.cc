@@ -1,7 +1,6 @@
 // SPDX-License-Identifier: Apache-2.0
-// `quantacal fit`: free-parameter names and the GSL nonlinear least-squares fit.
+// `quantacal fit`: the GSL nonlinear least-squares fit of free card parameters.
 #include "fit_detail.h"
-#include <quantacal/common/text.h>
 #include <quantacal/fit/fit.h>
 
 #include <quantacal/common/exceptions.h>
@@ -12,46 +11,16 @@
 #include <gsl/gsl_multifit_nlinear.h>
 #include <gsl/gsl_vector.h>
 
+#include <algorithm>
 #include <cmath>
-#include <map>
 #include <memory>
 #include <sstream>
-#include <stdexcept>
 
 namespace quantacal::fit {
 namespace {
 
-std::string heat_capacity_path(std::size_t i, const std::string& name) {
-  return "heat_capacity[" + std::to_string(i) + "]." + name;
-}
-
-/** A model state: the heat-capacity model and the conductivity. */
-struct ModelState {
-  std::shared_ptr<const HeatCapacityModel> model;
-  ConductivityPtr conductivity;
-};
-
-ModelState apply(const Material& start, const std::vector<FreeParameter>& parameters,
-                 const std::vector<double>& values) {
-  HeatCapacityModel model = start.model();
-  std::shared_ptr<const MetalConductivity> metal;
-  for (std::size_t j = 0; j < parameters.size(); ++j) {
-    const FreeParameter& f = parameters[j];
-    if (f.conductivity) {
-      if (!metal)
-        metal =
-            std::dynamic_pointer_cast<const MetalConductivity>(start.data().conductivity);
-      metal = metal->with_parameter(f.name, values[j]);
-    } else {
-      model = model.with_contribution(
-          f.index, model.contributions()[f.index]->with_parameter(f.name, values[j]));
-    }
-  }
-  ModelState s;
-  s.model = std::make_shared<const HeatCapacityModel>(std::move(model));
-  s.conductivity = metal ? ConductivityPtr(metal) : start.data().conductivity;
-  return s;
-}
+using detail::ModelState;
+using VectorPtr = std::unique_ptr<gsl_vector, decltype(&gsl_vector_free)>;
 
 /** Model value for one row, in the row's unit. */
 double model_value(const ModelState& s, const DataPoint& p, double molar_mass) {
@@ -100,14 +69,17 @@ struct Problem {
 int residual_function(const gsl_vector* q, void* data, gsl_vector* f) {
   auto* problem = static_cast<Problem*>(data);
   try {
-    const ModelState s = apply(*problem->start, *problem->parameters, problem->values(q));
+    const ModelState s =
+        detail::apply(*problem->start, *problem->parameters, problem->values(q));
     for (std::size_t i = 0; i < problem->points.size(); ++i) {
       const DataPoint& p = problem->points[i];
       const double m = model_value(s, p, problem->start->molar_mass());
       const double r = (m - p.value) / problem->scale(p);
-      if (!std::isfinite(r))
-        throw std::invalid_argument(
-            "non-finite model value at T = " + format_double(p.temperature) + " K");
+      if (!std::isfinite(r)) {
+        problem->last_error =
+            "non-finite model value at T = " + format_double(p.temperature) + " K";
+        return GSL_EDOM;
+      }
       gsl_vector_set(f, i, r);
     }
   } catch (const std::exception& e) {
@@ -117,74 +89,233 @@ int residual_function(const gsl_vector* q, void* data, gsl_vector* f) {
   return GSL_SUCCESS;
 }
 
-} // namespace
-
-std::vector<FreeParameter>
-resolve_free_parameters(const Material& material, const std::vector<std::string>& names) {
-  // All parameters by full path, and bare names with the paths they can mean.
-  std::vector<FreeParameter> all;
-  std::map<std::string, std::vector<std::size_t>> bare;
-  const auto& contributions = material.model().contributions();
-  for (std::size_t i = 0; i < contributions.size(); ++i)
-    for (const Parameter& p : contributions[i]->parameters()) {
-      bare[p.name].push_back(all.size());
-      all.push_back({heat_capacity_path(i, p.name), false, i, p.name, p.unit, p.value});
-    }
-  const auto metal =
-      std::dynamic_pointer_cast<const MetalConductivity>(material.data().conductivity);
-  if (metal)
-    for (const Parameter& p : metal->parameters())
-      all.push_back({"conductivity." + p.name, true, 0, p.name, p.unit, p.value});
-
-  std::vector<std::string> choices;
-  for (const auto& p : all)
-    choices.push_back(p.path);
-  for (const auto& [name, list] : bare)
-    if (list.size() == 1)
-      choices.push_back(name);
-
-  std::vector<FreeParameter> out;
-  for (const std::string& raw : names) {
-    const FreeParameter* found = nullptr;
-    for (const auto& p : all)
-      if (p.path == raw)
-        found = &p;
-    if (!found) {
-      const auto it = bare.find(raw);
-      if (it != bare.end() && it->second.size() == 1) {
-        found = &all[it->second.front()];
-      } else if (it != bare.end()) {
-        std::string list;
-        for (std::size_t k : it->second)
-          list += (list.empty() ? "" : ", ") + all[k].path;
-        throw std::invalid_argument("--free: '" + raw +
-                                    "' is ambiguous in this card; name one of: " + list);
-      }
-    }
-    if (!found) {
-      std::string hint = quantacal::did_you_mean(raw, choices);
-      if (raw.rfind("conductivity.", 0) == 0 && !metal)
-        hint += " (the card's conductivity is of kind '" +
-                material.data().conductivity->kind() +
-                "', which has no parameters to fit; use kind 'metal')";
-      std::string list;
-      for (const auto& c : choices)
-        list += (list.empty() ? "" : ", ") + c;
-      throw std::invalid_argument("--free: unknown parameter '" + raw + "'" + hint +
-                                  "; this card has: " + list);
-    }
-    for (const auto& o : out)
-      if (o.path == found->path)
-        throw std::invalid_argument("--free: parameter '" + raw + "' given twice (as " +
-                                    o.path + ")");
-    out.push_back(*found);
-  }
-  if (out.empty())
-    throw std::invalid_argument("--free: expected at least one parameter name");
-  return out;
+std::vector<double> start_values(const std::vector<FreeParameter>& parameters) {
+  std::vector<double> v;
+  for (const auto& f : parameters)
+    v.push_back(f.start);
+  return v;
 }
 
-namespace {
+/** Enough rows, and a freed conductivity only where the card's is `metal`. */
+void check_rows_and_parameters(const Material& start, const DataSet& data,
+                               const std::vector<FreeParameter>& parameters,
+                               const FitOptions& options, std::size_t n) {
+  const std::size_t m = parameters.size();
+  if (n <= m)
+    throw InputError(
+        data.file, 0, 0, "", "",
+        std::to_string(n) + " data row" + (n == 1 ? "" : "s") +
+            (options.from > 0.0 || options.to > 0.0 ? " in the selected temperature range"
+                                                    : "") +
+            " for " + std::to_string(m) + " free parameter" + (m == 1 ? "" : "s") +
+            ": a fit needs more rows than free parameters");
+  for (const auto& f : parameters)
+    if (f.conductivity &&
+        !std::dynamic_pointer_cast<const MetalConductivity>(start.data().conductivity))
+      throw InputError::argument("--free " + f.path, "", "",
+                                 "the card's conductivity is not of kind 'metal'");
+}
+
+/** Every row must be inside the valid range and the domain of the start model. */
+void check_domain(const Material& start, const DataSet& data,
+                  const std::vector<FreeParameter>& parameters,
+                  const std::vector<DataPoint>& points) {
+  const ModelState s = detail::apply(start, parameters, start_values(parameters));
+  for (const DataPoint& p : points) {
+    const auto at_row = [&](const std::exception& e) {
+      return InputError(data.file, p.line, 1, "T_K", format_double(p.temperature),
+                        std::string("the start card cannot be evaluated here: ") +
+                            e.what());
+    };
+    try {
+      // Rows outside the card's valid_range would fit a model the card does not
+      // stand behind (and its table cannot serve): widen the range instead.
+      start.check_temperature(p.temperature, "the card's valid_range");
+      if (p.kind == Observable::energy_increment && p.from_temperature > 0.0)
+        start.check_temperature(p.from_temperature, "the card's valid_range");
+      (void)model_value(s, p, start.molar_mass());
+    } catch (const InputError& e) {
+      if (!e.file().empty())
+        throw; // already located
+      throw at_row(e);
+    } catch (const std::exception& e) {
+      throw at_row(e);
+    }
+  }
+}
+
+/** The selected rows of @p data and the checked problem of fitting them. */
+void set_up(Problem& problem, const Material& start, const DataSet& data,
+            const std::vector<FreeParameter>& parameters, const FitOptions& options) {
+  problem.start = &start;
+  problem.parameters = &parameters;
+  problem.weighting = options.weighting;
+  problem.has_sigma = data.has_sigma;
+  for (const DataPoint& p : data.points) {
+    if (options.from > 0.0 && p.temperature < options.from)
+      continue;
+    if (options.to > 0.0 && p.temperature > options.to)
+      continue;
+    problem.points.push_back(p);
+  }
+  check_rows_and_parameters(start, data, parameters, options, problem.points.size());
+  check_domain(start, data, parameters, problem.points);
+  for (const auto& f : parameters)
+    problem.logarithmic.push_back(f.start > 0.0);
+}
+
+/** The start card evaluates on every row, and each parameter moves some residual. */
+void check_determinable(Problem& problem) {
+  const std::vector<FreeParameter>& parameters = *problem.parameters;
+  const std::size_t n = problem.points.size(), m = parameters.size();
+  bool any_k = false;
+  for (const DataPoint& p : problem.points)
+    any_k = any_k || p.kind == Observable::conductivity;
+  const VectorPtr q0(gsl_vector_calloc(m), gsl_vector_free);
+  const VectorPtr f0(gsl_vector_alloc(n), gsl_vector_free);
+  const VectorPtr f1(gsl_vector_alloc(n), gsl_vector_free);
+  if (residual_function(q0.get(), &problem, f0.get()) != GSL_SUCCESS)
+    throw NumericalError("quantacal::fit::fit",
+                         "the start card cannot be evaluated: " + problem.last_error);
+  for (std::size_t j = 0; j < m; ++j) {
+    const double h = 1e-6;
+    gsl_vector_set(q0.get(), j, h);
+    const int status = residual_function(q0.get(), &problem, f1.get());
+    gsl_vector_set(q0.get(), j, 0.0);
+    double change = 0.0;
+    if (status == GSL_SUCCESS)
+      for (std::size_t i = 0; i < n; ++i)
+        change = std::max(
+            change, std::abs(gsl_vector_get(f1.get(), i) - gsl_vector_get(f0.get(), i)));
+    if (status == GSL_SUCCESS && change == 0.0)
+      throw InputError::argument(
+          "--free " + parameters[j].path, "", "",
+          std::string("this parameter changes none of the selected data rows") +
+              (parameters[j].conductivity && !any_k ? " (it needs k_W_per_m_K rows)"
+                                                    : "") +
+              ", so the data cannot determine it");
+  }
+}
+
+/** Why the driver stopped, as the message of the NumericalError. */
+std::string not_converged(int status, std::size_t iterations, const FitOptions& options,
+                          const std::string& last_error) {
+  std::string why = status == GSL_EMAXITER
+                        ? "no convergence after " + std::to_string(iterations) +
+                              " iterations (--max-iterations " +
+                              std::to_string(options.max_iterations) + ")"
+                        : std::string("the solver stopped (") + gsl_strerror(status) +
+                              ") after " + std::to_string(iterations) + " iterations";
+  if (status == GSL_EDOM && !last_error.empty())
+    why += ": the model could not be evaluated: " + last_error;
+  return "the fit did not converge: " + why +
+         "; try other start values in the card, fewer free parameters or a narrower "
+         "range";
+}
+
+/** Fitted values, covariance (SI), correlation and chi-square from the solver's end. */
+void fill_statistics(FitResult& r, const Problem& problem, const gsl_vector* q,
+                     const gsl_matrix* cq, double chi2, bool scaled) {
+  const std::size_t n = problem.points.size(), m = problem.parameters->size();
+  r.values = problem.values(q);
+  r.chi_square = chi2;
+  r.degrees_of_freedom = n - m;
+  r.reduced_chi_square = chi2 / static_cast<double>(n - m);
+  r.covariance_scaled = scaled;
+  const double factor = r.covariance_scaled ? r.reduced_chi_square : 1.0;
+  std::vector<double> d(m); // dp/dq
+  for (std::size_t j = 0; j < m; ++j)
+    d[j] = problem.logarithmic[j] ? r.values[j] : 1.0;
+  r.covariance.assign(m, std::vector<double>(m));
+  r.correlation.assign(m, std::vector<double>(m));
+  for (std::size_t a = 0; a < m; ++a)
+    for (std::size_t b = 0; b < m; ++b)
+      r.covariance[a][b] = factor * d[a] * d[b] * gsl_matrix_get(cq, a, b);
+  for (std::size_t a = 0; a < m; ++a)
+    r.standard_errors.push_back(std::sqrt(std::max(0.0, r.covariance[a][a])));
+  for (std::size_t a = 0; a < m; ++a)
+    for (std::size_t b = 0; b < m; ++b) {
+      const double den = r.standard_errors[a] * r.standard_errors[b];
+      r.correlation[a][b] = den > 0.0 ? r.covariance[a][b] / den : (a == b ? 1.0 : 0.0);
+    }
+}
+
+/**
+ * Runs the trust-region solver from the start values; fills the statistics of @p r
+ * and returns the weighted residuals at the solution.
+ */
+std::vector<double> solve(Problem& problem, const FitOptions& options, bool has_sigma,
+                          FitResult& r) {
+  const std::size_t n = problem.points.size(), m = problem.parameters->size();
+  gsl_multifit_nlinear_fdf fdf;
+  fdf.f = residual_function;
+  fdf.df = nullptr; // finite-difference Jacobian
+  fdf.fvv = nullptr;
+  fdf.n = n;
+  fdf.p = m;
+  fdf.params = &problem;
+  gsl_multifit_nlinear_parameters fdf_parameters =
+      gsl_multifit_nlinear_default_parameters();
+  fdf_parameters.trs = gsl_multifit_nlinear_trs_lm;
+  fdf_parameters.scale = gsl_multifit_nlinear_scale_more;
+  fdf_parameters.fdtype = GSL_MULTIFIT_NLINEAR_CTRDIFF;
+  const std::unique_ptr<gsl_multifit_nlinear_workspace,
+                        decltype(&gsl_multifit_nlinear_free)>
+      w(gsl_multifit_nlinear_alloc(gsl_multifit_nlinear_trust, &fdf_parameters, n, m),
+        gsl_multifit_nlinear_free);
+  const VectorPtr q0(gsl_vector_calloc(m), gsl_vector_free);
+  if (gsl_multifit_nlinear_init(q0.get(), &fdf, w.get()) != GSL_SUCCESS)
+    throw NumericalError("quantacal::fit::fit",
+                         "cannot start the fit: " + problem.last_error);
+  int info = 0;
+  const int status =
+      gsl_multifit_nlinear_driver(options.max_iterations, options.xtol, options.gtol, 0.0,
+                                  nullptr, nullptr, &info, w.get());
+  r.iterations = gsl_multifit_nlinear_niter(w.get());
+  if (status != GSL_SUCCESS)
+    throw NumericalError("quantacal fit", not_converged(status, r.iterations, options,
+                                                        problem.last_error));
+  const std::unique_ptr<gsl_matrix, decltype(&gsl_matrix_free)> cq(gsl_matrix_alloc(m, m),
+                                                                   gsl_matrix_free);
+  gsl_multifit_nlinear_covar(gsl_multifit_nlinear_jac(w.get()), 0.0, cq.get());
+  const gsl_vector* f = gsl_multifit_nlinear_residual(w.get());
+  double chi2 = 0.0;
+  gsl_blas_ddot(f, f, &chi2);
+  fill_statistics(r, problem, gsl_multifit_nlinear_position(w.get()), cq.get(), chi2,
+                  !has_sigma);
+  std::vector<double> weighted(n);
+  for (std::size_t i = 0; i < n; ++i)
+    weighted[i] = gsl_vector_get(f, i);
+  return weighted;
+}
+
+/** The residual table, its statistics and the temperature range of the rows. */
+void add_residual_rows(FitResult& r, const Problem& problem, const ModelState& s,
+                       const std::vector<double>& weighted) {
+  const std::size_t n = problem.points.size();
+  double sum2 = 0.0;
+  r.from = problem.points.front().temperature;
+  r.to = r.from;
+  for (std::size_t i = 0; i < n; ++i) {
+    const DataPoint& p = problem.points[i];
+    ResidualRow row;
+    row.point = p;
+    row.model = model_value(s, p, problem.start->molar_mass());
+    row.residual = row.model - p.value;
+    row.relative = row.residual / p.value;
+    row.weighted = weighted[i];
+    sum2 += row.relative * row.relative;
+    r.max_relative = std::max(r.max_relative, std::abs(row.relative));
+    r.from = std::min({r.from, p.temperature,
+                       p.kind == Observable::energy_increment && p.from_temperature > 0.0
+                           ? p.from_temperature
+                           : p.temperature});
+    r.to = std::max(r.to, p.temperature);
+    r.residuals.push_back(row);
+  }
+  r.rms_relative = std::sqrt(sum2 / static_cast<double>(n));
+}
+
 /**
  * A freed electronic gamma is set by the lowest capacity rows; where the
  * electrons carry only a small share of c_p there, a lattice-shape error of a
@@ -223,191 +354,28 @@ void add_gamma_warnings(FitResult& r, const std::vector<DataPoint>& points) {
 FitResult fit(const Material& start, const DataSet& data,
               const std::vector<FreeParameter>& parameters, const FitOptions& options) {
   Problem problem;
-  problem.start = &start;
-  problem.parameters = &parameters;
-  problem.weighting = options.weighting;
-  problem.has_sigma = data.has_sigma;
-  for (const DataPoint& p : data.points) {
-    if (options.from > 0.0 && p.temperature < options.from)
-      continue;
-    if (options.to > 0.0 && p.temperature > options.to)
-      continue;
-    problem.points.push_back(p);
-  }
-  const std::size_t n = problem.points.size();
-  const std::size_t m = parameters.size();
-  if (n <= m)
-    throw std::invalid_argument(
-        data.file + ": " + std::to_string(n) + " data row" + (n == 1 ? "" : "s") +
-        (options.from > 0.0 || options.to > 0.0 ? " in the selected temperature range"
-                                                : "") +
-        " for " + std::to_string(m) + " free parameter" + (m == 1 ? "" : "s") +
-        ": a fit needs more rows than free parameters");
-  bool any_k = false;
-  for (const DataPoint& p : problem.points)
-    any_k = any_k || p.kind == Observable::conductivity;
-  for (const auto& f : parameters)
-    if (f.conductivity &&
-        !std::dynamic_pointer_cast<const MetalConductivity>(start.data().conductivity))
-      throw std::invalid_argument("--free " + f.path +
-                                  ": the card's conductivity is not of kind 'metal'");
-  // Every row must be inside the domain of the start model.
-  {
-    const ModelState s = apply(start, parameters, [&] {
-      std::vector<double> v;
-      for (const auto& f : parameters)
-        v.push_back(f.start);
-      return v;
-    }());
-    for (const DataPoint& p : problem.points) {
-      try {
-        // Rows outside the card's valid_range would fit a model the card does not
-        // stand behind (and its table cannot serve): widen the range instead.
-        start.check_temperature(p.temperature, "the card's valid_range");
-        if (p.kind == Observable::energy_increment && p.from_temperature > 0.0)
-          start.check_temperature(p.from_temperature, "the card's valid_range");
-        (void)model_value(s, p, start.molar_mass());
-      } catch (const std::exception& e) {
-        throw CardError(data.file, p.line, 1, "T_K", format_double(p.temperature),
-                        std::string("the start card cannot be evaluated here: ") +
-                            e.what());
-      }
-    }
-  }
-  for (const auto& f : parameters)
-    problem.logarithmic.push_back(f.start > 0.0);
-
+  set_up(problem, start, data, parameters, options);
   gsl_set_error_handler_off();
-  const std::unique_ptr<gsl_vector, decltype(&gsl_vector_free)> q0(gsl_vector_calloc(m),
-                                                                   gsl_vector_free);
-  const std::unique_ptr<gsl_vector, decltype(&gsl_vector_free)> f0(gsl_vector_alloc(n),
-                                                                   gsl_vector_free);
-  const std::unique_ptr<gsl_vector, decltype(&gsl_vector_free)> f1(gsl_vector_alloc(n),
-                                                                   gsl_vector_free);
-  if (residual_function(q0.get(), &problem, f0.get()) != GSL_SUCCESS)
-    throw NumericalError("quantacal::fit::fit",
-                         "the start card cannot be evaluated: " + problem.last_error);
-  // A parameter that moves no residual cannot be determined by the data.
-  for (std::size_t j = 0; j < m; ++j) {
-    const double h = 1e-6;
-    gsl_vector_set(q0.get(), j, h);
-    const int status = residual_function(q0.get(), &problem, f1.get());
-    gsl_vector_set(q0.get(), j, 0.0);
-    double change = 0.0;
-    if (status == GSL_SUCCESS)
-      for (std::size_t i = 0; i < n; ++i)
-        change = std::max(
-            change, std::abs(gsl_vector_get(f1.get(), i) - gsl_vector_get(f0.get(), i)));
-    if (status == GSL_SUCCESS && change == 0.0)
-      throw std::invalid_argument(
-          "--free " + parameters[j].path +
-          ": this parameter changes none of the selected data rows" +
-          (parameters[j].conductivity && !any_k ? " (it needs k_W_per_m_K rows)" : "") +
-          ", so the data cannot determine it");
-  }
-
-  gsl_multifit_nlinear_fdf fdf;
-  fdf.f = residual_function;
-  fdf.df = nullptr; // finite-difference Jacobian
-  fdf.fvv = nullptr;
-  fdf.n = n;
-  fdf.p = m;
-  fdf.params = &problem;
-  gsl_multifit_nlinear_parameters fdf_parameters =
-      gsl_multifit_nlinear_default_parameters();
-  fdf_parameters.trs = gsl_multifit_nlinear_trs_lm;
-  fdf_parameters.scale = gsl_multifit_nlinear_scale_more;
-  fdf_parameters.fdtype = GSL_MULTIFIT_NLINEAR_CTRDIFF;
-  const std::unique_ptr<gsl_multifit_nlinear_workspace,
-                        decltype(&gsl_multifit_nlinear_free)>
-      w(gsl_multifit_nlinear_alloc(gsl_multifit_nlinear_trust, &fdf_parameters, n, m),
-        gsl_multifit_nlinear_free);
-  if (gsl_multifit_nlinear_init(q0.get(), &fdf, w.get()) != GSL_SUCCESS)
-    throw NumericalError("quantacal::fit::fit",
-                         "cannot start the fit: " + problem.last_error);
-  int info = 0;
-  const int status =
-      gsl_multifit_nlinear_driver(options.max_iterations, options.xtol, options.gtol, 0.0,
-                                  nullptr, nullptr, &info, w.get());
-  const std::size_t iterations = gsl_multifit_nlinear_niter(w.get());
-  if (status != GSL_SUCCESS) {
-    std::string why = status == GSL_EMAXITER
-                          ? "no convergence after " + std::to_string(iterations) +
-                                " iterations (--max-iterations " +
-                                std::to_string(options.max_iterations) + ")"
-                          : std::string("the solver stopped (") + gsl_strerror(status) +
-                                ") after " + std::to_string(iterations) + " iterations";
-    if (status == GSL_EDOM && !problem.last_error.empty())
-      why += ": the model could not be evaluated: " + problem.last_error;
-    throw NumericalError("quantacal fit",
-                         "the fit did not converge: " + why +
-                             "; try other start values in the card, fewer "
-                             "free parameters or a narrower range");
-  }
-
-  const gsl_vector* q = gsl_multifit_nlinear_position(w.get());
-  const gsl_matrix* jacobian = gsl_multifit_nlinear_jac(w.get());
-  const std::unique_ptr<gsl_matrix, decltype(&gsl_matrix_free)> cq(gsl_matrix_alloc(m, m),
-                                                                   gsl_matrix_free);
-  gsl_multifit_nlinear_covar(jacobian, 0.0, cq.get());
-  const gsl_vector* f = gsl_multifit_nlinear_residual(w.get());
-  double chi2 = 0.0;
-  gsl_blas_ddot(f, f, &chi2);
+  check_determinable(problem);
 
   FitResult r;
   r.parameters = parameters;
-  r.values = problem.values(q);
-  r.chi_square = chi2;
-  r.degrees_of_freedom = n - m;
-  r.reduced_chi_square = chi2 / static_cast<double>(n - m);
-  r.covariance_scaled = !data.has_sigma;
-  r.iterations = iterations;
-  const double factor = r.covariance_scaled ? r.reduced_chi_square : 1.0;
-  std::vector<double> d(m); // dp/dq
-  for (std::size_t j = 0; j < m; ++j)
-    d[j] = problem.logarithmic[j] ? r.values[j] : 1.0;
-  r.covariance.assign(m, std::vector<double>(m));
-  r.correlation.assign(m, std::vector<double>(m));
-  for (std::size_t a = 0; a < m; ++a)
-    for (std::size_t b = 0; b < m; ++b)
-      r.covariance[a][b] = factor * d[a] * d[b] * gsl_matrix_get(cq.get(), a, b);
-  for (std::size_t a = 0; a < m; ++a)
-    r.standard_errors.push_back(std::sqrt(std::max(0.0, r.covariance[a][a])));
-  for (std::size_t a = 0; a < m; ++a)
-    for (std::size_t b = 0; b < m; ++b) {
-      const double den = r.standard_errors[a] * r.standard_errors[b];
-      r.correlation[a][b] = den > 0.0 ? r.covariance[a][b] / den : (a == b ? 1.0 : 0.0);
-    }
-
-  const ModelState s = apply(start, parameters, r.values);
-  double sum2 = 0.0;
-  r.from = problem.points.front().temperature;
-  r.to = r.from;
-  for (std::size_t i = 0; i < n; ++i) {
-    const DataPoint& p = problem.points[i];
-    ResidualRow row;
-    row.point = p;
-    row.model = model_value(s, p, start.molar_mass());
-    row.residual = row.model - p.value;
-    row.relative = row.residual / p.value;
-    row.weighted = gsl_vector_get(f, i);
-    sum2 += row.relative * row.relative;
-    r.max_relative = std::max(r.max_relative, std::abs(row.relative));
-    r.from = std::min({r.from, p.temperature,
-                       p.kind == Observable::energy_increment && p.from_temperature > 0.0
-                           ? p.from_temperature
-                           : p.temperature});
-    r.to = std::max(r.to, p.temperature);
-    r.residuals.push_back(row);
-  }
-  r.rms_relative = std::sqrt(sum2 / static_cast<double>(n));
+  const std::vector<double> weighted = solve(problem, options, data.has_sigma, r);
+  const ModelState s = detail::apply(start, parameters, r.values);
+  add_residual_rows(r, problem, s, weighted);
 
   MaterialData md = start.data();
   md.model = s.model;
   md.conductivity = s.conductivity;
+  // The fitted material carries its own record (a start card's earlier one no longer
+  // applies), so fit::band works on it as on the fitted card once written and loaded.
+  md.fit = FitRecord{};
+  for (const FreeParameter& f : parameters)
+    md.fit->parameters.push_back(f.path);
+  md.fit->covariance = r.covariance;
   try {
     r.material = std::make_shared<const Material>(std::move(md));
-  } catch (const std::invalid_argument& e) {
+  } catch (const InputError& e) {
     throw NumericalError("quantacal fit",
                          std::string("the fitted card is not valid: ") + e.what());
   }

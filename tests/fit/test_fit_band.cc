@@ -56,10 +56,11 @@ TEST(FitBand, LinearInGammaGivesTSigmaGamma) {
   const std::string card =
       fit::fitted_card(text, start_file, r, data, fit::Weighting::absolute);
   const MaterialPtr fitted = load_card_from_string(card, "fitted.yaml");
-  const fit::FitRecord record = fit::read_fit_record(card, "fitted.yaml", *fitted);
+  ASSERT_TRUE(fitted->data().fit) << "the loader reads the fit record";
+  const FitRecord& record = *fitted->data().fit;
   ASSERT_EQ(record.parameters.size(), 1u);
   for (double t : {4.0, 10.0, 100.0}) {
-    const fit::BandRow b = fit::band(*fitted, record, t, Basis::mole);
+    const fit::BandRow b = fit::band(*fitted, t, Basis::mole);
     // C = ... + gamma T exactly (the dilation term bends this slightly at high T), so
     // sigma_C = T sigma_gamma (common practice: linear propagation)
     EXPECT_NEAR(b.capacity_sigma / (t * r.standard_errors[0]), 1.0, t < 50 ? 1e-4 : 2e-2)
@@ -80,9 +81,10 @@ TEST(FitBand, AgreesWithMonteCarloOverTheCovariance) {
   const std::string card =
       fit::fitted_card(text, start_file, r, data, fit::Weighting::absolute);
   const MaterialPtr fitted = load_card_from_string(card, "fitted.yaml");
-  const fit::FitRecord record = fit::read_fit_record(card, "fitted.yaml", *fitted);
+  ASSERT_TRUE(fitted->data().fit);
+  const FitRecord& record = *fitted->data().fit;
   const double t = 20.0;
-  const fit::BandRow b = fit::band(*fitted, record, t, Basis::mass);
+  const fit::BandRow b = fit::band(*fitted, t, Basis::mass);
   // Monte Carlo: parameters drawn from N(p, C) (Cholesky), exact model evaluated.
   const auto& c = record.covariance;
   const double l00 = std::sqrt(c[0][0]), l10 = c[1][0] / l00,
@@ -113,12 +115,55 @@ TEST(FitBand, AgreesWithMonteCarloOverTheCovariance) {
 }
 
 TEST(FitBand, MissingRecordIsAnError) {
-  const std::string text = read(start_file);
-  const MaterialPtr start = load_card_from_string(text, start_file);
+  const MaterialPtr start = load_card(start_file);
+  EXPECT_FALSE(start->data().fit);
   try {
-    fit::read_fit_record(text, start_file, *start);
+    (void)fit::band(*start, 20.0, Basis::mole);
     FAIL() << "a card without a fit record was accepted";
   } catch (const CardError& e) {
     EXPECT_NE(std::string(e.what()).find("no `fit` record"), std::string::npos);
+    EXPECT_EQ(e.file(), start_file) << "the error names the card";
+  }
+}
+
+TEST(FitBand, TheFitResultCarriesTheRecordOfTheWrittenCard) {
+  // The fitted material of a FitResult has the record its card will have: the band
+  // of the result equals the band of the written and reloaded card up to the 7
+  // significant digits the card writes values with.
+  const std::string text = read(start_file);
+  const MaterialPtr start = load_card_from_string(text, start_file);
+  const fit::DataSet data = synthetic();
+  const auto free = fit::resolve_free_parameters(*start, {"theta_D", "gamma"});
+  const fit::FitResult r = fit::fit(*start, data, free, {fit::Weighting::absolute});
+  ASSERT_TRUE(r.material->data().fit);
+  EXPECT_EQ(
+      r.material->data().fit->parameters,
+      (std::vector<std::string>{"heat_capacity[0].theta_D", "heat_capacity[2].gamma"}));
+  const MaterialPtr fitted = load_card_from_string(
+      fit::fitted_card(text, start_file, r, data, fit::Weighting::absolute),
+      "fitted.yaml");
+  // the covariance is written with round-trip precision
+  EXPECT_EQ(fitted->data().fit->covariance, r.covariance);
+  for (double t : {5.0, 20.0, 80.0}) {
+    const fit::BandRow a = fit::band(*r.material, t, Basis::mass);
+    const fit::BandRow b = fit::band(*fitted, t, Basis::mass);
+    EXPECT_NEAR(a.capacity_sigma / b.capacity_sigma, 1.0, 1e-5) << t;
+    EXPECT_NEAR(a.energy_sigma / b.energy_sigma, 1.0, 1e-5) << t;
+  }
+}
+
+TEST(FitBand, ARecordBuiltInCodeIsChecked) {
+  const MaterialPtr start = load_card(start_file);
+  MaterialData d = start->data();
+  d.fit = FitRecord{{"heat_capacity[0].theta_X"}, {{1.0}}};
+  EXPECT_THROW((void)fit::band(Material(d), 20.0, Basis::mole), InputError);
+  d.fit = FitRecord{{"heat_capacity[0].theta_D"}, {{1.0, 0.0}}};
+  try {
+    (void)fit::band(Material(d), 20.0, Basis::mole);
+    FAIL() << "a covariance of the wrong shape was accepted";
+  } catch (const InputError& e) {
+    EXPECT_EQ(std::string(e.what()),
+              "quantacal::fit::band: expected the fit record's covariance to be a 1 x 1 "
+              "matrix, one row and column per parameter");
   }
 }

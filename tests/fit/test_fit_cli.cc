@@ -167,3 +167,40 @@ TEST(FitCommand, BadInputGivesClearErrorsAndNoCard) {
   // missing required option
   expect_failure(dir, good, {"--weights", "relative"}, {2, "missing option --free"});
 }
+
+TEST(FitCommand, PlotNeedsNoShellAndAMissingGnuplotIsOnlyAWarning) {
+  TempDir dir;
+  const std::string data = dir.write("synthetic.csv", synthetic_csv());
+  // gnuplot starts without a shell: a folder with a space, a quote and a `$` is fine.
+  const auto folder = dir.path() / "it's a $HOME folder";
+  std::filesystem::create_directories(folder);
+  const std::string out = (folder / "fitted.yaml").string();
+  const auto r = run_quantacal({"fit", data, "--card", start_card, "--free", "theta_D",
+                                "--weights", "absolute", "-o", out});
+  ASSERT_EQ(r.exit_code, 0) << r.err;
+  EXPECT_TRUE(r.err.empty()) << r.err;
+  EXPECT_NE(r.out.find("\nplot: " + (folder / "fitted.svg").string() + "\n"),
+            std::string::npos)
+      << r.out;
+  EXPECT_NE(test::read_file(folder / "fitted.svg").find("<svg"), std::string::npos);
+  EXPECT_FALSE(std::filesystem::exists(folder / "fitted.svg.tmp"));
+
+  // Without gnuplot on the PATH the card is still written, with a warning.
+  const auto empty = dir.path() / "empty-path";
+  std::filesystem::create_directories(empty);
+  const std::string out2 = (dir.path() / "fitted2.yaml").string();
+  const std::string command = "PATH=" + test::shell_quote(empty.string()) + " " +
+                              test::shell_quote(QUANTACAL_EXECUTABLE) + " fit " +
+                              test::shell_quote(data) + " --card " +
+                              test::shell_quote(start_card) + " --free theta_D -o " +
+                              test::shell_quote(out2) + " >/dev/null 2>" +
+                              test::shell_quote((dir.path() / "err.txt").string());
+  const int status = std::system(command.c_str());
+  ASSERT_TRUE(WIFEXITED(status));
+  EXPECT_EQ(WEXITSTATUS(status), 0);
+  EXPECT_EQ(test::read_file(dir.path() / "err.txt"),
+            "quantacal fit: warning: no plot written: gnuplot not found\n");
+  EXPECT_TRUE(std::filesystem::exists(out2));
+  EXPECT_FALSE(std::filesystem::exists(dir.path() / "fitted2.svg"));
+  EXPECT_FALSE(std::filesystem::exists(dir.path() / "fitted2.svg.tmp"));
+}

@@ -48,38 +48,8 @@ TEST(FitCopper, ReferenceEquationAgreesWithPublishedValues) {
 }
 
 namespace {
-/**
- * Published copper c_p from t_low to 300 K as a data file: the Copper Reference
- * Equation up to 25 K (21 rows, sigma 0.5 %, a typical adiabatic-calorimetry
- * uncertainty: common practice) and the NIST correlation above (20 rows, sigma 5 %,
- * its stated fit error), both in J/kg/K.
- */
-struct CopperData {
-  std::string csv;
-  std::vector<double> temperatures, values;
-};
-
-CopperData published_copper_data(double t_low) {
-  CopperData d;
-  d.csv = "# copper c_p: Copper Reference Equation to 25 K, NIST correlation above\n"
-          "T_K,cp_J_per_kg_K,sigma\n";
-  auto add = [&](double t, double cp, double sigma) {
-    d.temperatures.push_back(t);
-    d.values.push_back(cp);
-    d.csv +=
-        format_double(t) + "," + format_double(cp) + "," + format_double(sigma) + "\n";
-  };
-  for (int i = 0; i <= 20; ++i) {
-    const double t = t_low * std::pow(25.0 / t_low, i / 20.0);
-    add(t, test::reference_equation_copper_heat_capacity(t) / test::copper_molar_mass,
-        0.005);
-  }
-  for (int i = 1; i <= 20; ++i) {
-    const double t = 25.0 * std::pow(12.0, i / 20.0);
-    add(t, test::nist_copper_specific_heat(t), 0.05);
-  }
-  return d;
-}
+using test::CopperData;
+using test::published_copper_data;
 
 struct CopperFit {
   fit::FitResult result;

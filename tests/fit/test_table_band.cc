@@ -10,7 +10,6 @@
 #include <gtest/gtest.h>
 
 #include <cmath>
-#include <fstream>
 #include <random>
 #include <sstream>
 
@@ -22,13 +21,6 @@ namespace {
 
 const std::string source_dir = QUANTACAL_SOURCE_DIR;
 const std::string start_card = source_dir + "/tests/fit/data/copper_start.yaml";
-
-std::string read(const std::string& path) {
-  std::ifstream in(path);
-  std::ostringstream s;
-  s << in.rdbuf();
-  return s.str();
-}
 
 // Synthetic per-mole c_p of the start card itself, 2 % seeded noise, 8 K to 40 K
 // where the electronic term gamma T matters (illustrative data made here).
@@ -81,7 +73,8 @@ TEST(TableBand, SigmaOfALinearParameterIsTTimesItsStandardError) {
   ASSERT_EQ(rows.size(), 3u);
 
   const MaterialPtr material = load_card(fitted);
-  const fit::FitRecord record = fit::read_fit_record(read(fitted), fitted, *material);
+  ASSERT_TRUE(material->data().fit);
+  const FitRecord& record = *material->data().fit;
   ASSERT_EQ(record.parameters.size(), 1u);
   const double sigma_gamma = std::sqrt(record.covariance[0][0]);
   ASSERT_GT(sigma_gamma, 0.0);

@@ -11,12 +11,16 @@
  * standard errors and covariance, and writes the card back with the values
  * replaced and a `fit` record. See docs/fitting.md.
  *
- * It is a library (quantacal_fit) linked by the command and by the tests; it
- * is the only part of quantacal that links GSL.
+ * It is a library (quantacal::fit, installed) linked by the command and by the
+ * tests; it is the only part of quantacal that links GSL. Bad input of every call
+ * is an InputError (a std::invalid_argument): located in the data file for the
+ * data, InputError::argument for a bad parameter of a call.
  */
 #ifndef QUANTACAL_FIT_FIT_H
 #define QUANTACAL_FIT_FIT_H
 
+#include <quantacal/cards/card_parameters.h>
+#include <quantacal/cards/card_writer.h>
 #include <quantacal/material/material.h>
 #include <quantacal/models/metal_conductivity.h>
 
@@ -73,7 +77,8 @@ DataSet read_data_from_string(const std::string& text, const std::string& file);
 /** SHA-256 of @p bytes as 64 lowercase hex digits (FIPS 180-4). */
 std::string sha256_hex(const std::string& bytes);
 
-/** A freed parameter, resolved against the start card. */
+/** A freed parameter, resolved against the start card (a CardParameter whose card
+ * value is the start value). */
 struct FreeParameter {
   std::string path; ///< full name path: heat_capacity[i].<name> or conductivity.<name>
   bool conductivity = false; ///< a parameter of the `metal` conductivity
@@ -86,9 +91,10 @@ struct FreeParameter {
 /**
  * Resolves `--free` names (docs/fitting.md, "Naming parameters"): a bare name
  * when it is unique among the heat-capacity contributions, else
- * `heat_capacity[i].<name>`; `conductivity.<name>` for the conductivity.
- * @throws std::invalid_argument for an unknown name (with "did you mean"),
- *         an ambiguous bare name (listing the full paths), a duplicate
+ * `heat_capacity[i].<name>`; `conductivity.<name>` for the conductivity
+ * (resolve_card_parameters() with messages starting `--free: `).
+ * @throws InputError for an unknown name (with "did you mean"), an ambiguous bare
+ *         name (listing the full paths), a duplicate, an empty list
  */
 std::vector<FreeParameter> resolve_free_parameters(const Material& material,
                                                    const std::vector<std::string>& names);
@@ -134,7 +140,9 @@ struct FitResult {
   double max_relative = 0.0;      ///< largest |relative residual|
   std::size_t iterations = 0;
   double from = 0.0, to = 0.0; ///< K, temperature range of the rows used
-  MaterialPtr material;        ///< the start material with the fitted values
+  /// The start material with the fitted values and their record (MaterialData::fit:
+  /// the freed paths and `covariance`), as the fitted card loads.
+  MaterialPtr material;
   /// Cautions about how well the data determine a parameter (printed by the
   /// report), e.g. a freed gamma whose electrons carry little of c_p at the
   /// lowest row; empty when there is nothing to say.
@@ -155,19 +163,32 @@ inline constexpr double gamma_share_threshold = 0.40;
  * whose start value is > 0 are fitted in log space (they stay positive); the
  * covariance is mapped back to SI. Without a sigma column the covariance is
  * scaled by the reduced chi-square.
- * @throws std::invalid_argument fewer rows than free parameters + 1, a
- *         parameter the data cannot determine, k rows with a freed conductivity
- *         that is not `metal`
- * @throws CardError a row outside the model's domain (file:line)
- * @throws NumericalError the fit did not converge (with the iteration count)
+ * @throws InputError naming the data file for fewer rows than free parameters + 1,
+ *         located at file:line for a row outside the card's valid range or the
+ *         model's domain; InputError::argument (`--free <path>: ...`) for a
+ *         parameter the data cannot determine or a freed conductivity that is not
+ *         `metal`
+ * @throws NumericalError the fit did not converge (with the iteration count), or
+ *         the fitted values do not make a valid material
  */
 FitResult fit(const Material& start, const DataSet& data,
               const std::vector<FreeParameter>& parameters, const FitOptions& options);
 
 /**
- * The fitted card: the start card's text with the freed values replaced (as
- * quoted quantities with SI units), a `sources` entry for each, and a `fit`
- * record (an earlier one is replaced).
+ * What to change in the start card to make the fitted card: the freed values,
+ * a `sources` entry for each (data file, checksum, start value) and the `fit`
+ * record (statistics, standard errors, covariance).
+ * @param result the fit
+ * @param data the data (file, checksum)
+ * @param weighting as used
+ * @return the changes for edit_card()
+ */
+CardChanges fitted_card_changes(const FitResult& result, const DataSet& data,
+                                Weighting weighting);
+
+/**
+ * The fitted card: edit_card() of the start card's text with
+ * fitted_card_changes(), so the start card's comments and layout are kept.
  * @param start_text the start card's YAML text
  * @param start_file its path (for messages)
  * @param result the fit
@@ -176,7 +197,8 @@ FitResult fit(const Material& start, const DataSet& data,
  * @param output_file where the card will be written: `composition` card paths,
  *        relative to the start card's folder, are rewritten relative to its folder
  *        ("" = the start card's folder)
- * @throws CardError if a freed value cannot be located in the start card
+ * @return the fitted card's text
+ * @throws InputError if a freed value cannot be located in the start card
  */
 std::string fitted_card(const std::string& start_text, const std::string& start_file,
                         const FitResult& result, const DataSet& data, Weighting weighting,
@@ -186,28 +208,19 @@ std::string fitted_card(const std::string& start_text, const std::string& start_
 std::string report(const FitResult& result, const DataSet& data);
 
 /**
- * Plots data, model and relative residuals to an SVG file with gnuplot.
- * @return "" on success, else why no plot was written
+ * Writes a gnuplot script plotting data, model and relative residuals, and its
+ * data files, into @p folder: `gnuplot plot.gp` run in @p folder (it names its
+ * data files relative to it) writes the SVG to @p svg_path. The library starts
+ * no program; the command runs gnuplot.
+ * @param result the fit
+ * @param folder an existing folder for the script (plot.gp) and its data files
+ *        (data.txt, model.txt)
+ * @param svg_path where gnuplot is to write the SVG (made absolute in the script)
+ * @return the script's path
+ * @throws std::ios_base::failure if a file cannot be written
  */
-std::string plot(const FitResult& result, const std::string& svg_path);
-
-/** The `fit` record of a fitted card, as needed to propagate its covariance. */
-struct FitRecord {
-  std::vector<FreeParameter> parameters;       ///< resolved against the card
-  std::vector<std::vector<double>> covariance; ///< SI, in the order of parameters
-};
-
-/**
- * Reads the `fit` record of a fitted card.
- * @param card_text the card's YAML text
- * @param file its path (for messages)
- * @param material the card as loaded
- * @throws CardError if there is no `fit` record, or it is malformed (a path the
- *         card does not have, a covariance that is not square, symmetric, with
- *         non-negative diagonal)
- */
-FitRecord read_fit_record(const std::string& card_text, const std::string& file,
-                          const Material& material);
+std::string write_plot_script(const FitResult& result, const std::string& folder,
+                              const std::string& svg_path);
 
 /** Values with one-sigma uncertainties at one temperature, on a basis. */
 struct BandRow {
@@ -220,16 +233,20 @@ struct BandRow {
 };
 
 /**
- * Linear propagation of the recorded covariance C: sigma^2 = g^T C g, with g the
- * gradient of the exact model value with respect to the fitted parameters
- * (central differences, step 1e-3 standard errors).
+ * Values and one-sigma uncertainties at one temperature, by linear propagation of
+ * the covariance C of the card's `fit` record (MaterialData::fit, read by the card
+ * loader): sigma^2 = g^T C g, with g the gradient of the exact model value with
+ * respect to the fitted parameters (central differences, step 1e-3 standard
+ * errors).
  * @param material the fitted card
- * @param record its fit record
  * @param temperature K, inside the valid range
  * @param basis mass, mole or volume
+ * @throws InputError naming the card's file if it has no `fit` record;
+ *         InputError::argument if a record built in code names a parameter the
+ *         material does not have or its covariance is not square in their number
+ * @throws RangeError outside the valid range
  */
-BandRow band(const Material& material, const FitRecord& record, double temperature,
-             Basis basis);
+BandRow band(const Material& material, double temperature, Basis basis);
 
 } // namespace quantacal::fit
 

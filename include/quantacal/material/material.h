@@ -6,6 +6,7 @@
 #ifndef QUANTACAL_MATERIAL_MATERIAL_H
 #define QUANTACAL_MATERIAL_MATERIAL_H
 
+#include <quantacal/material/fit_record.h>
 #include <quantacal/models/conductivity.h>
 #include <quantacal/models/heat_capacity_model.h>
 #include <quantacal/tables/property_table.h>
@@ -13,6 +14,7 @@
 #include <cstddef>
 #include <memory>
 #include <mutex>
+#include <optional>
 #include <string>
 #include <vector>
 
@@ -57,6 +59,8 @@ struct MaterialData {
   ConductivityPtr conductivity;
   std::vector<Source> sources;
   std::vector<Measurement> measurements;
+  /// The `fit` record of a fitted card (covariance of its fitted parameters), if any.
+  std::optional<FitRecord> fit;
   TableOptions table_options; ///< tolerance etc.; range is the valid range
 };
 
