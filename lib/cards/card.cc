@@ -222,16 +222,19 @@ std::vector<ContributionPtr> read_composition(CardReader& reader, const YAML::No
   return parts;
 }
 
-MaterialPtr load_text(const std::string& text, const std::string& file,
-                      LoadChain& chain) {
-  const YAML::Node root = parse_yaml(text, file);
-  CardReader reader(file);
-  if (!root.IsDefined() || root.IsNull())
-    throw CardError(file, 1, 1, "", "", "empty card: expected a map of keys and values");
-  reader.check_keys(root, "", kTopKeys);
+// The top-level nodes that later parts of the card reading refer back to.
+struct CardNodes {
+  YAML::Node composition;
+  YAML::Node heat_capacity;
+  YAML::Node molar_mass;
+  YAML::Node range;
+  YAML::Node reference_temperature;
+};
 
-  MaterialData data;
-  data.file = file;
+// Name, description, molar mass, density, valid range, reference temperature and
+// table tolerance of the card rooted at @p root.
+CardNodes read_card_basics(CardReader& reader, const YAML::Node& root,
+                           MaterialData& data) {
   data.name = reader.text(reader.require(root, "", "name"), "name");
   data.description = reader.text(reader.require(root, "", "description"), "description");
 
@@ -290,74 +293,114 @@ MaterialPtr load_text(const std::string& text, const std::string& file,
       reader.fail(tol, "table_tolerance", reader.text(tol, "table_tolerance"),
                   "expected a relative tolerance between 1e-13 and 1e-2");
   }
+  // (built at the end: assigning to a YAML::Node would assign the node's content)
+  return CardNodes{composition, heat_capacity, mm, range, tref};
+}
 
+// The terms of the heat-capacity model.
+struct ModelTerms {
   std::vector<ContributionPtr> contributions;
   std::optional<Dilation> dilation;
+};
+
+// The terms of the heat-capacity model: the card's own terms and dilation, or
+// composed from other cards (whose molar masses then give the card's if it
+// states none).
+ModelTerms read_model_terms(CardReader& reader, const YAML::Node& root,
+                            const CardNodes& nodes, const std::string& file,
+                            LoadChain& chain, MaterialData& data) {
+  ModelTerms terms;
   const YAML::Node dil = reader.optional(root, "dilation");
-  if (composition.IsDefined()) {
+  if (nodes.composition.IsDefined()) {
     if (dil.IsDefined())
       reader.fail(
           dil, "dilation", "",
           "a composed card takes the dilation of its components; remove `dilation`");
     double composed_mass = 0.0;
-    contributions =
-        read_composition(reader, composition, "composition", file, chain, composed_mass);
-    if (!mm.IsDefined())
+    terms.contributions = read_composition(reader, nodes.composition, "composition", file,
+                                           chain, composed_mass);
+    if (!nodes.molar_mass.IsDefined())
       data.molar_mass = composed_mass;
   } else {
     CardBasics basics;
     basics.molar_mass = data.molar_mass;
-    contributions = read_heat_capacity(reader, heat_capacity, "heat_capacity", basics);
+    terms.contributions =
+        read_heat_capacity(reader, nodes.heat_capacity, "heat_capacity", basics);
     if (dil.IsDefined())
-      dilation = read_dilation(reader, dil, "dilation");
+      terms.dilation = read_dilation(reader, dil, "dilation");
   }
+  return terms;
+}
 
-  ConductivityContext cc;
-  cc.lower_temperature = data.lower_temperature;
-  cc.upper_temperature = data.upper_temperature;
-  data.conductivity = read_conductivity(reader, reader.require(root, "", "conductivity"),
-                                        "conductivity", cc);
-
+// The heat-capacity model of @p terms; a rejection is located at the card's
+// heat_capacity (or composition) block.
+void build_model(CardReader& reader, const CardNodes& nodes, const ModelTerms& terms,
+                 MaterialData& data) {
   try {
-    data.model =
-        std::make_shared<const HeatCapacityModel>(data.name, contributions, dilation);
+    data.model = std::make_shared<const HeatCapacityModel>(data.name, terms.contributions,
+                                                           terms.dilation);
   } catch (const std::invalid_argument& e) {
-    reader.fail(composition.IsDefined() ? composition : heat_capacity,
-                composition.IsDefined() ? "composition" : "heat_capacity", "", e.what());
+    const bool composed = nodes.composition.IsDefined();
+    reader.fail(composed ? nodes.composition : nodes.heat_capacity,
+                composed ? "composition" : "heat_capacity", "", e.what());
   }
-  // The model must be defined, and finite, over the whole valid range.
+}
+
+// The model must be defined, finite and of positive capacity over the whole
+// valid range, and the reference temperature inside its domain.
+void check_model_over_range(CardReader& reader, const CardNodes& nodes,
+                            const MaterialData& data) {
   const HeatCapacityModel& model = *data.model;
   if (data.lower_temperature < model.lower_temperature() ||
       data.upper_temperature > model.upper_temperature())
-    reader.fail(range, "valid_range", "",
+    reader.fail(nodes.range, "valid_range", "",
                 "expected a range inside the domain of the heat-capacity terms, " +
                     format_double(model.lower_temperature()) + " K to " +
                     format_double(model.upper_temperature()) + " K");
-  {
-    const int n = 64;
-    for (int i = 0; i <= n; ++i) {
-      const double t =
-          data.lower_temperature *
-          std::pow(data.upper_temperature / data.lower_temperature, double(i) / n);
-      try {
-        const ThermalState s = model.evaluate(std::min(t, data.upper_temperature));
-        if (!std::isfinite(s.energy) || !std::isfinite(s.capacity) || !(s.capacity > 0.0))
-          throw std::invalid_argument("C = " + format_double(s.capacity) +
-                                      " J/mol/K at " + format_double(t) + " K");
-      } catch (const std::exception& e) {
-        reader.fail(
-            range, "valid_range", "",
-            std::string("the heat-capacity model is not physical inside the valid "
-                        "range: ") +
-                e.what());
-      }
+  const int n = 64;
+  for (int i = 0; i <= n; ++i) {
+    const double t =
+        data.lower_temperature *
+        std::pow(data.upper_temperature / data.lower_temperature, double(i) / n);
+    try {
+      const ThermalState s = model.evaluate(std::min(t, data.upper_temperature));
+      if (!std::isfinite(s.energy) || !std::isfinite(s.capacity) || !(s.capacity > 0.0))
+        throw std::invalid_argument("C = " + format_double(s.capacity) + " J/mol/K at " +
+                                    format_double(t) + " K");
+    } catch (const std::exception& e) {
+      reader.fail(nodes.range, "valid_range", "",
+                  std::string("the heat-capacity model is not physical inside the valid "
+                              "range: ") +
+                      e.what());
     }
   }
   if (data.reference_temperature > 0.0 &&
       (data.reference_temperature < model.lower_temperature() ||
        data.reference_temperature > model.upper_temperature()))
-    reader.fail(tref, "reference_temperature", reader.text(tref, "reference_temperature"),
+    reader.fail(nodes.reference_temperature, "reference_temperature",
+                reader.text(nodes.reference_temperature, "reference_temperature"),
                 "expected a temperature inside the domain of the heat-capacity terms");
+}
+
+MaterialPtr load_text(const std::string& text, const std::string& file,
+                      LoadChain& chain) {
+  const YAML::Node root = parse_yaml(text, file);
+  CardReader reader(file);
+  if (!root.IsDefined() || root.IsNull())
+    throw CardError(file, 1, 1, "", "", "empty card: expected a map of keys and values");
+  reader.check_keys(root, "", kTopKeys);
+
+  MaterialData data;
+  data.file = file;
+  const CardNodes nodes = read_card_basics(reader, root, data);
+  const ModelTerms terms = read_model_terms(reader, root, nodes, file, chain, data);
+  ConductivityContext cc;
+  cc.lower_temperature = data.lower_temperature;
+  cc.upper_temperature = data.upper_temperature;
+  data.conductivity = read_conductivity(reader, reader.require(root, "", "conductivity"),
+                                        "conductivity", cc);
+  build_model(reader, nodes, terms, data);
+  check_model_over_range(reader, nodes, data);
 
   read_sources(reader, reader.require(root, "", "sources"), "sources", data);
   const YAML::Node meas = reader.optional(root, "measurements");

@@ -56,7 +56,8 @@ void CardReader::expect_sequence(const YAML::Node& node, const std::string& path
 }
 
 void CardReader::check_keys(const YAML::Node& map, const std::string& path,
-                            const std::vector<std::string>& allowed) const {
+                            const std::vector<std::string>& allowed,
+                            bool key_as_value) const {
   expect_map(map, path);
   std::set<std::string> seen;
   for (const auto& entry : map) {
@@ -72,11 +73,11 @@ void CardReader::check_keys(const YAML::Node& map, const std::string& path,
       std::string list;
       for (const auto& a : allowed)
         list += (list.empty() ? "" : ", ") + a;
-      fail(key, key_path, "",
+      fail(key, key_path, key_as_value ? name : "",
            "unknown key" + did_you_mean(name, allowed) + "; expected one of: " + list);
     }
     if (!seen.insert(name).second)
-      fail(key, key_path, "", "duplicate key");
+      fail(key, key_path, key_as_value ? name : "", "duplicate key");
   }
 }
 
@@ -180,6 +181,121 @@ void CardReader::record_parameter(const YAML::Node& node, const std::string& pat
                                       node.IsScalar() ? node.Scalar() : ""});
 }
 
+namespace {
+
+// The two units of a table's `columns` (temperature, then the tabulated
+// quantity), each checked now so that a wrong unit is reported at the unit.
+void read_column_units(CardReader& reader, const YAML::Node& map,
+                       const YAML::Node& columns, const YAML::Node& rows,
+                       const std::string& path,
+                       const std::vector<Dimension>& y_dimensions,
+                       const std::string& y_description, std::string units[2]) {
+  if (!columns.IsDefined())
+    reader.fail(
+        map, join_path(path, "columns"), "",
+        "missing field (a unit per column, e.g. [\"K\", \"W/m/K\"]), or give `points`");
+  if (!rows.IsDefined())
+    reader.fail(map, join_path(path, "rows"), "", "missing field");
+  const std::string cpath = join_path(path, "columns");
+  reader.expect_sequence(columns, cpath);
+  if (columns.size() != 2)
+    reader.fail(columns, cpath, "",
+                "expected two units, for temperature and " + y_description);
+  for (std::size_t i = 0; i < 2; ++i)
+    units[i] = reader.text(columns[i], index_path(cpath, i));
+  for (std::size_t i = 0; i < 2; ++i) {
+    const std::string probe = "1 " + units[i];
+    Quantity q;
+    try {
+      q = parse_quantity(probe);
+    } catch (const std::invalid_argument& e) {
+      reader.fail(columns[i], index_path(cpath, i), units[i], e.what());
+    }
+    bool ok = false;
+    if (i == 0)
+      ok = q.dimension == dimension::temperature();
+    for (const auto& d : y_dimensions)
+      ok = ok || (i == 1 && q.dimension == d);
+    if (!ok) {
+      std::string wanted = i == 0 ? dimension_description(dimension::temperature()) : "";
+      if (i == 1)
+        for (std::size_t k = 0; k < y_dimensions.size(); ++k)
+          wanted += (k == 0 ? "" : " or ") + dimension_description(y_dimensions[k]);
+      reader.fail(columns[i], index_path(cpath, i), units[i],
+                  "expected a unit of " + wanted + ", found " +
+                      dimension_description(q.dimension));
+    }
+  }
+}
+
+// A cell of a `points` table: a quantity with its own unit. The tabulated
+// quantity's kind of unit (index into @p y_dimensions) must be the same in every row.
+double read_points_cell(CardReader& reader, const YAML::Node& cell,
+                        const std::string& cell_path, std::size_t column, std::size_t row,
+                        const std::vector<Dimension>& y_dimensions, ReadTable& table) {
+  std::size_t found = 0;
+  const double value = column == 0
+                           ? reader.quantity(cell, cell_path, dimension::temperature())
+                           : reader.quantity_of(cell, cell_path, y_dimensions, found);
+  if (column == 1) {
+    if (row > 0 && found != table.y_dimension)
+      reader.fail(cell, cell_path, reader.text(cell, cell_path),
+                  "expected the same kind of unit in every row");
+    table.y_dimension = found;
+  }
+  return value;
+}
+
+// A cell of a `columns` + `rows` table: a bare number in its column's @p unit.
+double read_rows_cell(CardReader& reader, const YAML::Node& cell,
+                      const std::string& cell_path, std::size_t column,
+                      const std::string& unit, const std::vector<Dimension>& y_dimensions,
+                      ReadTable& table) {
+  const std::string t = reader.text(cell, cell_path);
+  try {
+    (void)detail::parse_number(t);
+  } catch (const std::invalid_argument&) {
+    reader.fail(cell, cell_path, t,
+                "expected a bare number (its unit \"" + unit + "\" is in `columns`)");
+  }
+  double value = 0.0;
+  std::size_t found = 0;
+  try {
+    const Quantity q = parse_quantity(t + " " + unit);
+    value = q.value;
+    for (std::size_t k = 0; k < y_dimensions.size(); ++k)
+      if (q.dimension == y_dimensions[k])
+        found = k;
+  } catch (const std::invalid_argument& e) {
+    reader.fail(cell, cell_path, t, e.what());
+  }
+  if (column == 1)
+    table.y_dimension = found;
+  return value;
+}
+
+// A row's values must be a positive temperature, above the previous row's, and
+// a positive (or, if @p allow_zero, non-negative) tabulated value.
+void check_row(CardReader& reader, const YAML::Node& row, const std::string& row_path,
+               const double value[2], const ReadTable& table,
+               const std::string& y_description, bool allow_zero) {
+  if (!(value[0] > 0.0))
+    reader.fail(row[0], index_path(row_path, 0),
+                reader.text(row[0], index_path(row_path, 0)),
+                "expected a temperature > 0 K");
+  if (!table.x.empty() && !(value[0] > table.x.back()))
+    reader.fail(row[0], index_path(row_path, 0),
+                reader.text(row[0], index_path(row_path, 0)),
+                "expected temperatures strictly increasing (previous row has " +
+                    format_double(table.x.back()) + " K)");
+  if (allow_zero ? !(value[1] >= 0.0) : !(value[1] > 0.0))
+    reader.fail(row[1], index_path(row_path, 1),
+                reader.text(row[1], index_path(row_path, 1)),
+                "expected " + y_description + (allow_zero ? " >= 0" : " > 0"));
+}
+
+} // namespace
+
 ReadTable read_temperature_table(CardReader& reader, const YAML::Node& map,
                                  const std::string& path,
                                  const std::vector<Dimension>& y_dimensions,
@@ -188,7 +304,6 @@ ReadTable read_temperature_table(CardReader& reader, const YAML::Node& map,
   const YAML::Node columns = reader.optional(map, "columns");
   const YAML::Node rows = reader.optional(map, "rows");
   const YAML::Node points = reader.optional(map, "points");
-  std::vector<std::pair<YAML::Node, YAML::Node>> cells;
   std::string units[2];
   const std::string rows_path = join_path(path, points.IsDefined() ? "points" : "rows");
   if (points.IsDefined()) {
@@ -197,44 +312,8 @@ ReadTable read_temperature_table(CardReader& reader, const YAML::Node& map,
                   "give either `points` (a unit in every cell) or `columns` and `rows`, "
                   "not both");
   } else {
-    if (!columns.IsDefined())
-      reader.fail(
-          map, join_path(path, "columns"), "",
-          "missing field (a unit per column, e.g. [\"K\", \"W/m/K\"]), or give `points`");
-    if (!rows.IsDefined())
-      reader.fail(map, join_path(path, "rows"), "", "missing field");
-    const std::string cpath = join_path(path, "columns");
-    reader.expect_sequence(columns, cpath);
-    if (columns.size() != 2)
-      reader.fail(columns, cpath, "",
-                  "expected two units, for temperature and " + y_description);
-    for (std::size_t i = 0; i < 2; ++i)
-      units[i] = reader.text(columns[i], index_path(cpath, i));
-    // Check the column units now, so a wrong unit is reported at the unit.
-    for (std::size_t i = 0; i < 2; ++i) {
-      const std::string probe = "1 " + units[i];
-      Quantity q;
-      try {
-        q = parse_quantity(probe);
-      } catch (const std::invalid_argument& e) {
-        reader.fail(columns[i], index_path(cpath, i), units[i], e.what());
-      }
-      bool ok = false;
-      if (i == 0)
-        ok = q.dimension == dimension::temperature();
-      for (const auto& d : y_dimensions)
-        ok = ok || (i == 1 && q.dimension == d);
-      if (!ok) {
-        std::string wanted =
-            i == 0 ? dimension_description(dimension::temperature()) : "";
-        if (i == 1)
-          for (std::size_t k = 0; k < y_dimensions.size(); ++k)
-            wanted += (k == 0 ? "" : " or ") + dimension_description(y_dimensions[k]);
-        reader.fail(columns[i], index_path(cpath, i), units[i],
-                    "expected a unit of " + wanted + ", found " +
-                        dimension_description(q.dimension));
-      }
-    }
+    read_column_units(reader, map, columns, rows, path, y_dimensions, y_description,
+                      units);
   }
   const YAML::Node list = points.IsDefined() ? points : rows;
   reader.expect_sequence(list, rows_path);
@@ -249,55 +328,13 @@ ReadTable read_temperature_table(CardReader& reader, const YAML::Node& map,
                   "expected 2 values: temperature and " + y_description);
     double value[2];
     for (std::size_t c = 0; c < 2; ++c) {
-      const YAML::Node cell = row[c];
       const std::string cell_path = index_path(row_path, c);
-      if (points.IsDefined()) {
-        std::size_t found = 0;
-        value[c] = c == 0 ? reader.quantity(cell, cell_path, dimension::temperature())
-                          : reader.quantity_of(cell, cell_path, y_dimensions, found);
-        if (c == 1) {
-          if (r > 0 && found != table.y_dimension)
-            reader.fail(cell, cell_path, reader.text(cell, cell_path),
-                        "expected the same kind of unit in every row");
-          table.y_dimension = found;
-        }
-      } else {
-        const std::string t = reader.text(cell, cell_path);
-        try {
-          (void)detail::parse_number(t);
-        } catch (const std::invalid_argument&) {
-          reader.fail(cell, cell_path, t,
-                      "expected a bare number (its unit \"" + units[c] +
-                          "\" is in `columns`)");
-        }
-        std::size_t found = 0;
-        const std::string with_unit = t + " " + units[c];
-        try {
-          const Quantity q = parse_quantity(with_unit);
-          value[c] = q.value;
-          for (std::size_t k = 0; k < y_dimensions.size(); ++k)
-            if (q.dimension == y_dimensions[k])
-              found = k;
-        } catch (const std::invalid_argument& e) {
-          reader.fail(cell, cell_path, t, e.what());
-        }
-        if (c == 1)
-          table.y_dimension = found;
-      }
+      value[c] = points.IsDefined() ? read_points_cell(reader, row[c], cell_path, c, r,
+                                                       y_dimensions, table)
+                                    : read_rows_cell(reader, row[c], cell_path, c,
+                                                     units[c], y_dimensions, table);
     }
-    if (!(value[0] > 0.0))
-      reader.fail(row[0], index_path(row_path, 0),
-                  reader.text(row[0], index_path(row_path, 0)),
-                  "expected a temperature > 0 K");
-    if (!table.x.empty() && !(value[0] > table.x.back()))
-      reader.fail(row[0], index_path(row_path, 0),
-                  reader.text(row[0], index_path(row_path, 0)),
-                  "expected temperatures strictly increasing (previous row has " +
-                      format_double(table.x.back()) + " K)");
-    if (allow_zero ? !(value[1] >= 0.0) : !(value[1] > 0.0))
-      reader.fail(row[1], index_path(row_path, 1),
-                  reader.text(row[1], index_path(row_path, 1)),
-                  "expected " + y_description + (allow_zero ? " >= 0" : " > 0"));
+    check_row(reader, row, row_path, value, table, y_description, allow_zero);
     table.x.push_back(value[0]);
     table.y.push_back(value[1]);
     table.x_node.push_back(row[0]);

@@ -46,10 +46,14 @@ public:
   [[noreturn]] void fail_at(int line, int column, const std::string& path,
                             const std::string& value, const std::string& expected) const;
 
-  /** Rejects keys of @p map not in @p allowed (with "did you mean") and duplicate keys.
+  /**
+   * Rejects keys of @p map not in @p allowed (with "did you mean") and duplicate keys.
+   * @param key_as_value also give the offending key as the error's value (case files:
+   *        `time.frist_step = "frist_step": unknown key ...`); cards leave it empty
    */
   void check_keys(const YAML::Node& map, const std::string& path,
-                  const std::vector<std::string>& allowed) const;
+                  const std::vector<std::string>& allowed,
+                  bool key_as_value = false) const;
 
   /** The child @p key of @p map, or a "missing field" error. */
   YAML::Node require(const YAML::Node& map, const std::string& path,

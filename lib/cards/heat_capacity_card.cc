@@ -91,6 +91,90 @@ LowerExtension read_below(CardReader& reader, const YAML::Node& node,
   return below;
 }
 
+// A Sommerfeld term: `gamma` >= 0 J/mol/K^2.
+ContributionPtr read_electronic(CardReader& reader, const YAML::Node& node,
+                                const std::string& path) {
+  reader.check_keys(node, path, {"kind", "gamma"});
+  const std::string gpath = join_path(path, "gamma");
+  const YAML::Node g = reader.require(node, path, "gamma");
+  const double gamma = reader.quantity(g, gpath, dimension::sommerfeld());
+  if (!(gamma >= 0.0))
+    reader.fail(g, gpath, reader.text(g, gpath),
+                "expected a Sommerfeld coefficient >= 0 J/mol/K^2");
+  reader.record_parameter(g, gpath);
+  return make_electronic(gamma);
+}
+
+// A latent heat smeared over `width` around `temperature` (molar or specific latent
+// heat).
+ContributionPtr read_transition(CardReader& reader, const YAML::Node& node,
+                                const std::string& path, const CardBasics& basics) {
+  reader.check_keys(node, path, {"kind", "temperature", "latent_heat", "width"});
+  const double t = temperature_parameter(reader, node, path, "temperature");
+  const std::string lpath = join_path(path, "latent_heat");
+  const YAML::Node l = reader.require(node, path, "latent_heat");
+  std::size_t found = 0;
+  double latent = reader.quantity_of(
+      l, lpath, {dimension::molar_energy(), dimension::specific_energy()}, found);
+  if (found == 1)
+    latent *= basics.molar_mass;
+  if (!(latent > 0.0))
+    reader.fail(l, lpath, reader.text(l, lpath), "expected a latent heat > 0");
+  reader.record_parameter(l, lpath);
+  const std::string wpath = join_path(path, "width");
+  const YAML::Node w = reader.require(node, path, "width");
+  const double width = reader.positive_temperature_difference(w, wpath);
+  reader.record_parameter(w, wpath);
+  if (!(width < t / 4))
+    reader.fail(w, wpath, reader.text(w, wpath),
+                "expected a width below a quarter of the transition temperature");
+  return make_transition(t, latent, width);
+}
+
+// Measured points, molar or specific, with the extension below the first point.
+ContributionPtr read_tabulated(CardReader& reader, const YAML::Node& node,
+                               const std::string& path, const CardBasics& basics) {
+  reader.check_keys(node, path, {"kind", "columns", "rows", "points", "below"});
+  ReadTable t = read_temperature_table(
+      reader, node, path, {dimension::molar_capacity(), dimension::specific_capacity()},
+      "a heat capacity (J/mol/K or J/kg/K)", true);
+  if (t.y_dimension == 1)
+    for (double& c : t.y)
+      c *= basics.molar_mass;
+  const bool has_points = node["points"].IsDefined();
+  const std::string rows_path = join_path(path, has_points ? "points" : "rows");
+  reader.record_parameter(has_points ? node["points"] : node["rows"], rows_path);
+  const LowerExtension below = read_below(reader, node, path, basics);
+  return make_tabulated(std::move(t.x), std::move(t.y), below);
+}
+
+// A Shomate polynomial with its range and the extension below it.
+ContributionPtr read_shomate(CardReader& reader, const YAML::Node& node,
+                             const std::string& path, const CardBasics& basics) {
+  reader.check_keys(node, path, {"kind", "A", "B", "C", "D", "E", "range", "below"});
+  std::vector<double> coefficients;
+  for (const char* key : {"A", "B", "C", "D", "E"}) {
+    const YAML::Node c = reader.require(node, path, key);
+    const std::string cpath = join_path(path, key);
+    coefficients.push_back(reader.number(c, cpath));
+    reader.record_parameter(c, cpath);
+  }
+  const std::string rpath = join_path(path, "range");
+  const YAML::Node range = reader.require(node, path, "range");
+  reader.check_keys(range, rpath, {"from", "to"});
+  const double from = reader.positive_temperature(reader.require(range, rpath, "from"),
+                                                  join_path(rpath, "from"));
+  const YAML::Node to_node = reader.require(range, rpath, "to");
+  const double to = reader.positive_temperature(to_node, join_path(rpath, "to"));
+  if (!(to > from))
+    reader.fail(to_node, join_path(rpath, "to"),
+                reader.text(to_node, join_path(rpath, "to")),
+                "expected the end of the range above its start");
+  reader.record_parameter(range, rpath);
+  const LowerExtension below = read_below(reader, node, path, basics);
+  return make_shomate(coefficients, from, to, below);
+}
+
 ContributionPtr read_contribution(CardReader& reader, const YAML::Node& node,
                                   const std::string& path, const CardBasics& basics) {
   reader.expect_map(node, path);
@@ -108,17 +192,8 @@ ContributionPtr read_contribution(CardReader& reader, const YAML::Node& node,
     const double theta = temperature_parameter(reader, node, path, "theta_E");
     return make_einstein(theta, modes_of(reader, node, path));
   }
-  if (kind == "electronic") {
-    reader.check_keys(node, path, {"kind", "gamma"});
-    const std::string gpath = join_path(path, "gamma");
-    const YAML::Node g = reader.require(node, path, "gamma");
-    const double gamma = reader.quantity(g, gpath, dimension::sommerfeld());
-    if (!(gamma >= 0.0))
-      reader.fail(g, gpath, reader.text(g, gpath),
-                  "expected a Sommerfeld coefficient >= 0 J/mol/K^2");
-    reader.record_parameter(g, gpath);
-    return make_electronic(gamma);
-  }
+  if (kind == "electronic")
+    return read_electronic(reader, node, path);
   if (kind == "schottky") {
     reader.check_keys(node, path, {"kind", "gap", "degeneracy_ratio", "centres"});
     const double gap = temperature_parameter(reader, node, path, "gap");
@@ -128,66 +203,12 @@ ContributionPtr read_contribution(CardReader& reader, const YAML::Node& node,
                                      "a number of centres per formula unit");
     return make_schottky(gap, g, n);
   }
-  if (kind == "transition") {
-    reader.check_keys(node, path, {"kind", "temperature", "latent_heat", "width"});
-    const double t = temperature_parameter(reader, node, path, "temperature");
-    const std::string lpath = join_path(path, "latent_heat");
-    const YAML::Node l = reader.require(node, path, "latent_heat");
-    std::size_t found = 0;
-    double latent = reader.quantity_of(
-        l, lpath, {dimension::molar_energy(), dimension::specific_energy()}, found);
-    if (found == 1)
-      latent *= basics.molar_mass;
-    if (!(latent > 0.0))
-      reader.fail(l, lpath, reader.text(l, lpath), "expected a latent heat > 0");
-    reader.record_parameter(l, lpath);
-    const std::string wpath = join_path(path, "width");
-    const YAML::Node w = reader.require(node, path, "width");
-    const double width = reader.positive_temperature_difference(w, wpath);
-    reader.record_parameter(w, wpath);
-    if (!(width < t / 4))
-      reader.fail(w, wpath, reader.text(w, wpath),
-                  "expected a width below a quarter of the transition temperature");
-    return make_transition(t, latent, width);
-  }
-  if (kind == "tabulated") {
-    reader.check_keys(node, path, {"kind", "columns", "rows", "points", "below"});
-    ReadTable t = read_temperature_table(
-        reader, node, path, {dimension::molar_capacity(), dimension::specific_capacity()},
-        "a heat capacity (J/mol/K or J/kg/K)", true);
-    if (t.y_dimension == 1)
-      for (double& c : t.y)
-        c *= basics.molar_mass;
-    const bool has_points = node["points"].IsDefined();
-    const std::string rows_path = join_path(path, has_points ? "points" : "rows");
-    reader.record_parameter(has_points ? node["points"] : node["rows"], rows_path);
-    const LowerExtension below = read_below(reader, node, path, basics);
-    return make_tabulated(std::move(t.x), std::move(t.y), below);
-  }
-  if (kind == "shomate") {
-    reader.check_keys(node, path, {"kind", "A", "B", "C", "D", "E", "range", "below"});
-    std::vector<double> coefficients;
-    for (const char* key : {"A", "B", "C", "D", "E"}) {
-      const YAML::Node c = reader.require(node, path, key);
-      const std::string cpath = join_path(path, key);
-      coefficients.push_back(reader.number(c, cpath));
-      reader.record_parameter(c, cpath);
-    }
-    const std::string rpath = join_path(path, "range");
-    const YAML::Node range = reader.require(node, path, "range");
-    reader.check_keys(range, rpath, {"from", "to"});
-    const double from = reader.positive_temperature(reader.require(range, rpath, "from"),
-                                                    join_path(rpath, "from"));
-    const YAML::Node to_node = reader.require(range, rpath, "to");
-    const double to = reader.positive_temperature(to_node, join_path(rpath, "to"));
-    if (!(to > from))
-      reader.fail(to_node, join_path(rpath, "to"),
-                  reader.text(to_node, join_path(rpath, "to")),
-                  "expected the end of the range above its start");
-    reader.record_parameter(range, rpath);
-    const LowerExtension below = read_below(reader, node, path, basics);
-    return make_shomate(coefficients, from, to, below);
-  }
+  if (kind == "transition")
+    return read_transition(reader, node, path, basics);
+  if (kind == "tabulated")
+    return read_tabulated(reader, node, path, basics);
+  if (kind == "shomate")
+    return read_shomate(reader, node, path, basics);
   std::string list;
   for (const auto& k : kKinds)
     list += (list.empty() ? "" : ", ") + k;
