@@ -2,10 +2,11 @@
 // heat_step: a small deal.II heat solver of your own that takes c_p(T), e(T)
 // and k(T) from a quantacal material card. It shows the one thing quantacal
 // asks of such a solver: call MaterialField::evaluate once per cell with the
-// temperatures at the quadrature points, and write the time derivative in
-// energy form, (E(T) - E(T_old)) / dt, with the Jacobian dE/dT that comes
-// with it. Then the stored energy changes by exactly the heat that crossed
-// the boundary (to the Newton tolerance), however steeply c_p varies.
+// temperatures at the quadrature points (asking for the properties it uses),
+// and write the time derivative in energy form, (E(T) - E(T_old)) / dt, with
+// the Jacobian dE/dT that comes with it. Then the stored energy changes by
+// exactly the heat that crossed the boundary (to the Newton tolerance), however
+// steeply c_p varies.
 //
 // Problem (illustrative): a 20 mm square bar section, uniform at 700 K, cooled
 // on its face x = 0 by convection (h = 2000 W/m^2/K, 300 K fluid), the other
@@ -96,8 +97,11 @@ int main(int argc, char** argv) {
         fv.get_function_values(T, t_q);
         fv.get_function_values(T_old, t_old_q);
         fv.get_function_gradients(T, grad_q);
-        field.evaluate(*cell, t_q, now);        // E, dE/dT, d2E/dT2, k, dk/dT at once
-        field.evaluate(*cell, t_old_q, before); // only .energy is used
+        // E, dE/dT, k, dk/dT at once; at the previous step only E
+        field.evaluate(*cell, t_q, now,
+                       quantacal::fe::property_energy | quantacal::fe::property_capacity |
+                           quantacal::fe::property_conduction);
+        field.evaluate(*cell, t_old_q, before, quantacal::fe::property_energy);
         cell_j = 0.0;
         cell_r = 0.0;
         for (unsigned int q = 0; q < t_q.size(); ++q) {

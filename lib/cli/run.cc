@@ -1,7 +1,10 @@
 // SPDX-License-Identifier: Apache-2.0
-// `quantacal run case.yaml`: the transient heat-conduction solver (lib/fe).
-// Works under `mpirun -np N`; only rank 0 prints.
+// `quantacal run case.yaml`: the transient heat-conduction solver (lib/solver),
+// then the plot of the cooling curves (gnuplot, started here: the library
+// starts no program). Works under `mpirun -np N`; only rank 0 prints and plots.
 #include "command_registry.h"
+#include "gnuplot.h"
+#include "options.h"
 
 #include <quantacal/common/exceptions.h>
 #include <quantacal/solver/solver.h>
@@ -11,28 +14,74 @@
 #include <filesystem>
 #include <iostream>
 #include <string>
+#include <system_error>
 #include <vector>
 
 namespace quantacal::cli {
 namespace {
 
-void print_run_help(std::ostream& out) {
-  out << "usage: quantacal run <case.yaml> [options]\n"
-         "       mpirun -np N quantacal run <case.yaml> [options]\n\n"
-         "Solves the transient heat-conduction case described by the case file\n"
-         "(format: docs/cases.md) and writes probes.csv, energy.csv, summary.yaml,\n"
-         "cooling_curves.svg and fields.pvd into the case's output folder.\n\n"
-         "options:\n"
-         "  --output DIR          write into DIR instead of the case's output.folder\n"
-         "  --formulation F       energy (default) or capacity (to measure its energy "
-         "loss)\n"
-         "  --degree P            finite-element degree 1, 2 or 3 (overrides "
-         "solver.degree)\n"
-         "  --no-fields           do not write VTU/PVTU/PVD field files\n"
-         "  --no-plot             do not run gnuplot\n"
-         "  --quiet               no header, progress or log lines\n\n"
-         "Results are estimates to be checked against measurements; quench and cryogen\n"
-         "work follows local codes and licensed practice.\n";
+OptionParser run_parser() {
+  OptionParser parser(
+      "run", "<case.yaml> [options]",
+      "Solves the transient heat-conduction case described by the case file\n"
+      "(format: docs/cases.md) and writes probes.csv, energy.csv, summary.yaml,\n"
+      "cooling_curves.svg and fields.pvd into the case's output folder.\n"
+      "Run it as `mpirun -np N quantacal run <case.yaml> [options]` on N MPI ranks.\n");
+  parser.add_value("output", "DIR", "write into DIR instead of the case's output.folder")
+      .add_value("formulation", "F",
+                 "energy (default) or capacity (to measure its energy loss)",
+                 {"energy", "capacity"})
+      .add_value("degree", "P",
+                 "finite-element degree 1, 2 or 3 (overrides solver.degree)",
+                 {"1", "2", "3"})
+      .add_flag("no-fields", "do not write VTU/PVTU/PVD field files")
+      .add_flag("no-plot", "do not plot the cooling curves (no gnuplot script, no SVG)")
+      .add_flag("quiet", "no header, progress or log lines")
+      .add_epilogue(
+          "Results are estimates to be checked against measurements; quench and cryogen\n"
+          "work follows local codes and licensed practice.\n")
+      .add_epilogue(exit_code_help());
+  return parser;
+}
+
+/** The case file with the command line's overrides applied. */
+solver::CaseDescription load_with_overrides(const ParsedOptions& options) {
+  solver::CaseDescription description = solver::load_case(options.positional.front());
+  if (const auto output = options.text("output"))
+    description.output.folder =
+        std::filesystem::absolute(*output).lexically_normal().string();
+  if (const auto formulation = options.text("formulation"))
+    description.solver.formulation = *formulation == "energy"
+                                         ? solver::Formulation::energy
+                                         : solver::Formulation::capacity;
+  if (const auto degree = options.text("degree"))
+    description.solver.degree = static_cast<unsigned int>(std::stoi(*degree));
+  if (options.has("no-fields"))
+    description.output.fields = false;
+  if (options.has("no-plot"))
+    description.output.plot = false;
+  return description;
+}
+
+/**
+ * Runs gnuplot on the script the run wrote and renames its cooling_curves.svg.tmp;
+ * a missing or failing gnuplot never fails the run (a warning says why).
+ */
+void plot_cooling_curves(const solver::RunResult& result, std::ostream* log) {
+  if (result.plot_script.empty())
+    return;
+  namespace fs = std::filesystem;
+  const fs::path folder = fs::path(result.plot_script).parent_path();
+  std::string warning = run_gnuplot(result.plot_script);
+  if (warning.empty()) {
+    std::error_code error;
+    fs::rename(folder / "cooling_curves.svg.tmp", folder / "cooling_curves.svg", error);
+    if (error)
+      warning = "cannot rename cooling_curves.svg.tmp (" + error.message() + ")";
+  }
+  if (!warning.empty() && log)
+    *log << "warning: " << warning
+         << ": cooling_curves.svg not made (the script cooling_curves.gp is written)\n";
 }
 
 int run_command(const std::vector<std::string>& args) {
@@ -45,70 +94,31 @@ int run_command(const std::vector<std::string>& args) {
 
   return guarded("run", [&]() -> int {
     try {
-      std::string case_file, output, formulation;
-      int degree = 0;
-      bool fields = true, plot = true, quiet = false;
-      for (std::size_t i = 0; i < args.size(); ++i) {
-        const std::string& a = args[i];
-        auto value = [&](const char* option) -> std::string {
-          if (i + 1 >= args.size())
-            throw std::invalid_argument(std::string("option ") + option +
-                                        " needs a value");
-          return args[++i];
-        };
-        if (a == "--help" || a == "-h") {
-          if (rank == 0)
-            print_run_help(std::cout);
-          return ok;
-        } else if (a == "--output") {
-          output = value("--output");
-        } else if (a == "--formulation") {
-          formulation = value("--formulation");
-          if (formulation != "energy" && formulation != "capacity")
-            throw std::invalid_argument("--formulation \"" + formulation +
-                                        "\": expected energy or capacity");
-        } else if (a == "--degree") {
-          const std::string v = value("--degree");
-          if (v != "1" && v != "2" && v != "3")
-            throw std::invalid_argument("--degree \"" + v + "\": expected 1, 2 or 3");
-          degree = std::stoi(v);
-        } else if (a == "--no-fields") {
-          fields = false;
-        } else if (a == "--no-plot") {
-          plot = false;
-        } else if (a == "--quiet") {
-          quiet = true;
-        } else if (!a.empty() && a[0] == '-') {
-          throw std::invalid_argument("unknown option '" + a +
-                                      "' (see quantacal run --help)");
-        } else if (case_file.empty()) {
-          case_file = a;
-        } else {
-          throw std::invalid_argument("one case file expected, got also '" + a + "'");
-        }
-      }
-      if (case_file.empty()) {
+      const OptionParser parser = run_parser();
+      const ParsedOptions options = parser.parse(args);
+      if (options.help) {
         if (rank == 0)
-          print_run_help(std::cerr);
+          std::cout << parser.help();
+        return ok;
+      }
+      if (options.positional.empty()) {
+        if (rank == 0)
+          std::cerr << parser.help();
         return invalid_input;
       }
-      fe::CaseDescription description = fe::load_case(case_file);
-      if (!output.empty())
-        description.output.folder =
-            std::filesystem::absolute(output).lexically_normal().string();
-      if (!formulation.empty())
-        description.solver.formulation =
-            formulation == "energy" ? fe::Formulation::energy : fe::Formulation::capacity;
-      if (degree > 0)
-        description.solver.degree = static_cast<unsigned int>(degree);
-      if (!fields)
-        description.output.fields = false;
-      if (!plot)
-        description.output.plot = false;
-      fe::RunOptions options;
-      options.communicator = MPI_COMM_WORLD;
-      options.log = quiet ? nullptr : &std::cout;
-      fe::run_case(description, options);
+      if (options.positional.size() > 1)
+        throw UsageError("one case file expected, got also '" + options.positional[1] +
+                         "'");
+      const solver::CaseDescription description = load_with_overrides(options);
+      solver::RunOptions run_options;
+      run_options.communicator = MPI_COMM_WORLD;
+      run_options.log = options.has("quiet") ? nullptr : &std::cout;
+      run_options.throw_on_failure = false; // plot what there is first
+      const solver::RunResult result = solver::run_case(description, run_options);
+      if (rank == 0)
+        plot_cooling_curves(result, run_options.log);
+      if (!result.completed)
+        throw solver::stopped_run_error(description, result, run_options);
       return ok;
     } catch (...) {
       if (rank != 0)

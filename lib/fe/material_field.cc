@@ -78,82 +78,94 @@ void MaterialField<dim>::check_range(const Entry& e, const double* temperatures,
                                     "quantacal::fe::MaterialField::evaluate");
 }
 
+namespace {
+
+/** Resizes @p array to @p count for a wanted property and returns its data, else
+ * empties it. */
+double* output(std::vector<double>& array, bool wanted, std::size_t count) {
+  if (!wanted) {
+    array.clear();
+    return nullptr;
+  }
+  array.resize(count);
+  return array.data();
+}
+
+} // namespace
+
+template <int dim>
+void MaterialField<dim>::evaluate_thermal(const Entry& material,
+                                          const double* temperatures, std::size_t count,
+                                          PointProperties& out, PropertyFlags flags) {
+  double* energy = output(out.energy, contains(flags, property_energy), count);
+  double* capacity = output(out.capacity, contains(flags, property_capacity), count);
+  double* derivative = output(out.capacity_derivative,
+                              contains(flags, property_capacity_derivative), count);
+  if (!material.table_checks_range)
+    check_range(material, temperatures, count);
+  try {
+    // one batch call per cell (the table's fast path); null outputs are skipped
+    material.table->evaluate(temperatures, count, energy, capacity, derivative);
+  } catch (const RangeError&) {
+    // the points again, for the material's message (the table names its model)
+    check_range(material, temperatures, count);
+    throw;
+  }
+  const double factor = material.volume_factor;
+  const double offset = material.material->energy_offset();
+  for (std::size_t q = 0; energy && q < count; ++q)
+    energy[q] = factor * (energy[q] - offset);
+  for (std::size_t q = 0; capacity && q < count; ++q)
+    capacity[q] *= factor;
+  for (std::size_t q = 0; derivative && q < count; ++q)
+    derivative[q] *= factor;
+}
+
+template <int dim>
+void MaterialField<dim>::evaluate_conduction(const Entry& material,
+                                             const double* temperatures,
+                                             std::size_t count, PointProperties& out,
+                                             PropertyFlags flags) {
+  double* conductivity =
+      output(out.conductivity, contains(flags, property_conductivity), count);
+  double* slope = output(out.conductivity_derivative,
+                         contains(flags, property_conductivity_derivative), count);
+  if (!conductivity && !slope)
+    return;
+  // the model directly: Material::conductivity would check the range a second time
+  const ConductivityModel& model = material.material->conductivity_model();
+  for (std::size_t q = 0; q < count; ++q) {
+    const ConductivityValue value = model.evaluate(temperatures[q]);
+    if (conductivity)
+      conductivity[q] = value.value;
+    if (slope)
+      slope[q] = value.derivative;
+  }
+}
+
 template <int dim>
 void MaterialField<dim>::evaluate(const dealii::CellAccessor<dim, dim>& cell,
-                                  const std::vector<double>& temperatures,
-                                  PointProperties& out) const {
-  evaluate(cell.material_id(), temperatures, out, PropertySet::all);
+                                  dealii::ArrayView<const double> temperatures,
+                                  PointProperties& out, PropertyFlags flags) const {
+  evaluate(cell.material_id(), temperatures, out, flags);
 }
 
 template <int dim>
 void MaterialField<dim>::evaluate(dealii::types::material_id id,
-                                  const std::vector<double>& temperatures,
-                                  PointProperties& out) const {
-  evaluate(id, temperatures, out, PropertySet::all);
-}
-
-template <int dim>
-void MaterialField<dim>::evaluate(const dealii::CellAccessor<dim, dim>& cell,
-                                  const std::vector<double>& temperatures,
-                                  PointProperties& out, PropertySet selection) const {
-  evaluate(cell.material_id(), temperatures, out, selection);
-}
-
-template <int dim>
-void MaterialField<dim>::evaluate(dealii::types::material_id id,
-                                  const std::vector<double>& temperatures,
-                                  PointProperties& out, PropertySet selection) const {
-  const Entry& e = entry(id);
-  const Material& m = *e.material;
-  const std::size_t n = temperatures.size();
-  const double* t = temperatures.data();
-  const bool thermal = contains(selection, PropertySet::thermal);
-  const bool conduction = contains(selection, PropertySet::conductivity);
-  bool checked = false; // every temperature is inside the material's valid range
-  if (thermal) {
-    out.energy.resize(n);
-    out.capacity.resize(n);
-    out.capacity_derivative.resize(n);
-    if (!e.table_checks_range)
-      check_range(e, t, n);
-    try {
-      // one batch call per cell (the table's fast path)
-      e.table->evaluate(t, n, out.energy.data(), out.capacity.data(),
-                        out.capacity_derivative.data());
-    } catch (const RangeError&) {
-      // the points again, for the material's message (the table names its model)
-      check_range(e, t, n);
-      throw;
-    }
-    checked = true;
-    const double f = e.volume_factor;
-    const double offset = m.energy_offset();
-    for (std::size_t q = 0; q < n; ++q) {
-      out.energy[q] = f * (out.energy[q] - offset);
-      out.capacity[q] *= f;
-      out.capacity_derivative[q] *= f;
-    }
+                                  dealii::ArrayView<const double> temperatures,
+                                  PointProperties& out, PropertyFlags flags) const {
+  const Entry& material = entry(id);
+  const std::size_t count = temperatures.size();
+  const double* points = temperatures.data();
+  if ((flags & property_thermal) != property_none) {
+    evaluate_thermal(material, points, count, out, flags); // checks the range on the way
   } else {
     out.energy.clear();
     out.capacity.clear();
     out.capacity_derivative.clear();
+    check_range(material, points, count);
   }
-  if (conduction) {
-    if (!checked)
-      check_range(e, t, n);
-    out.conductivity.resize(n);
-    out.conductivity_derivative.resize(n);
-    // the model directly: Material::conductivity would check the range a second time
-    const ConductivityModel& model = m.conductivity_model();
-    for (std::size_t q = 0; q < n; ++q) {
-      const ConductivityValue k = model.evaluate(t[q]);
-      out.conductivity[q] = k.value;
-      out.conductivity_derivative[q] = k.derivative;
-    }
-  } else {
-    out.conductivity.clear();
-    out.conductivity_derivative.clear();
-  }
+  evaluate_conduction(material, points, count, out, flags);
 }
 
 template <int dim>

@@ -1,9 +1,9 @@
 // SPDX-License-Identifier: Apache-2.0
-// MaterialField: the selective evaluation (PropertySet::thermal, ::conductivity) against
-// the full evaluation and against the Material's own scalar calls, for every bundled
-// card. These are consistency checks between paths of the library: no outside data, and
-// the expected agreement is exact (the same operations in the same order), so every
-// comparison is bit for bit.
+// MaterialField: the evaluation of some properties (PropertyFlags) against the full
+// evaluation and against the Material's own scalar calls, for every bundled card, and the
+// VectorizedArray overload against the scalar one lane by lane. These are consistency
+// checks between paths of the library: no outside data, and the expected agreement is
+// exact (the same operations in the same order), so every comparison is bit for bit.
 #include "reference/validation_support.h"
 
 #include <quantacal/cards/card.h>
@@ -23,12 +23,13 @@
 #include <map>
 #include <random>
 #include <string>
+#include <utility>
 #include <vector>
 
 using namespace quantacal;
 using quantacal::fe::MaterialField;
 using quantacal::fe::PointProperties;
-using quantacal::fe::PropertySet;
+using quantacal::fe::PropertyFlags;
 
 namespace {
 
@@ -79,16 +80,25 @@ void expect_same(const std::vector<double>& a, const std::vector<double>& b,
 } // namespace
 
 TEST(MaterialFieldSelection, SelectionsCombine) {
-  EXPECT_EQ(PropertySet::thermal | PropertySet::conductivity, PropertySet::all);
-  EXPECT_TRUE(fe::contains(PropertySet::all, PropertySet::thermal));
-  EXPECT_TRUE(fe::contains(PropertySet::all, PropertySet::conductivity));
-  EXPECT_FALSE(fe::contains(PropertySet::thermal, PropertySet::conductivity));
-  EXPECT_FALSE(fe::contains(PropertySet::conductivity, PropertySet::thermal));
-  EXPECT_FALSE(fe::contains(PropertySet::thermal, PropertySet::all));
+  EXPECT_EQ(fe::property_thermal | fe::property_conduction, fe::property_all);
+  EXPECT_TRUE(fe::contains(fe::property_all, fe::property_thermal));
+  EXPECT_TRUE(fe::contains(fe::property_all, fe::property_conduction));
+  EXPECT_FALSE(fe::contains(fe::property_thermal, fe::property_conduction));
+  EXPECT_FALSE(fe::contains(fe::property_conduction, fe::property_thermal));
+  EXPECT_FALSE(fe::contains(fe::property_thermal, fe::property_all));
+  EXPECT_EQ(fe::property_energy | fe::property_capacity |
+                fe::property_capacity_derivative,
+            fe::property_thermal);
+  EXPECT_EQ(fe::property_conductivity | fe::property_conductivity_derivative,
+            fe::property_conduction);
+  PropertyFlags flags = fe::property_none;
+  flags |= fe::property_capacity;
+  EXPECT_TRUE(fe::contains(flags, fe::property_capacity));
+  EXPECT_FALSE(fe::contains(flags, fe::property_energy));
 }
 
 // For every bundled card and cell-sized (4, 8) and long batches: thermal-only and
-// conductivity-only give the full evaluation's arrays bit for bit and leave the others
+// conduction-only give the full evaluation's arrays bit for bit and leave the others
 // empty; the full evaluation gives Material::thermal (volume basis) and
 // Material::conductivity bit for bit.
 TEST(MaterialFieldSelection, SelectiveEqualsFullForBundledCards) {
@@ -104,9 +114,9 @@ TEST(MaterialFieldSelection, SelectiveEqualsFullForBundledCards) {
       PointProperties full, thermal, conduction, both;
       for (const std::vector<double>& t : batches(points, size)) {
         field.evaluate(7, t, full);
-        field.evaluate(7, t, thermal, PropertySet::thermal);
-        field.evaluate(7, t, conduction, PropertySet::conductivity);
-        field.evaluate(7, t, both, PropertySet::thermal | PropertySet::conductivity);
+        field.evaluate(7, t, thermal, fe::property_thermal);
+        field.evaluate(7, t, conduction, fe::property_conduction);
+        field.evaluate(7, t, both, fe::property_thermal | fe::property_conduction);
 
         expect_same(thermal.energy, full.energy, t, "energy");
         expect_same(thermal.capacity, full.capacity, t, "capacity");
@@ -142,6 +152,101 @@ TEST(MaterialFieldSelection, SelectiveEqualsFullForBundledCards) {
   }
 }
 
+// Each flag alone, for every bundled card: exactly its own array, equal bit for bit to
+// the same array of the full evaluation (the table's batch with one output, or with
+// two, gives the numbers of its batch with all three).
+TEST(MaterialFieldSelection, EachFlagAloneEqualsTheFullEvaluation) {
+  const std::vector<std::pair<PropertyFlags, const char*>> single{
+      {fe::property_energy, "energy"},
+      {fe::property_capacity, "capacity"},
+      {fe::property_capacity_derivative, "capacity_derivative"},
+      {fe::property_conductivity, "conductivity"},
+      {fe::property_conductivity_derivative, "conductivity_derivative"}};
+  const auto array = [](const PointProperties& p, PropertyFlags f) {
+    switch (f) {
+    case fe::property_energy:
+      return p.energy;
+    case fe::property_capacity:
+      return p.capacity;
+    case fe::property_capacity_derivative:
+      return p.capacity_derivative;
+    case fe::property_conductivity:
+      return p.conductivity;
+    default:
+      return p.conductivity_derivative;
+    }
+  };
+  for (const std::string& file : bundled_cards()) {
+    SCOPED_TRACE(file);
+    const MaterialPtr m = load_card(file);
+    const MaterialField<3> field({{3, m}});
+    const std::vector<double> points = sample(*m);
+    for (const std::vector<double>& t : batches(points, 8)) {
+      PointProperties full, one, two;
+      field.evaluate(3, t, full);
+      for (const auto& [flag, name] : single) {
+        field.evaluate(3, t, one, flag);
+        expect_same(array(one, flag), array(full, flag), t, name);
+        for (const auto& [other, other_name] : single) {
+          if (other != flag) {
+            EXPECT_TRUE(array(one, other).empty()) << name << " left " << other_name;
+          }
+        }
+      }
+      // the pair an energy-form Jacobian uses
+      field.evaluate(3, t, two, fe::property_energy | fe::property_capacity);
+      expect_same(two.energy, full.energy, t, "energy (with capacity)");
+      expect_same(two.capacity, full.capacity, t, "capacity (with energy)");
+      EXPECT_TRUE(two.capacity_derivative.empty());
+    }
+  }
+}
+
+// The VectorizedArray overload against the scalar one, lane by lane, for every pair of
+// bundled cards (lanes of one batch alternate between the two materials when the batch
+// is wider than one lane) at points inside both ranges.
+TEST(MaterialFieldSelection, VectorizedOverloadEqualsScalarLaneByLane) {
+  constexpr std::size_t width = dealii::VectorizedArray<double>::size();
+  const std::vector<std::string> cards = bundled_cards();
+  for (std::size_t a = 0; a < cards.size(); ++a) {
+    const std::size_t b = (a + 1) % cards.size();
+    SCOPED_TRACE(cards[a] + " with " + cards[b]);
+    const MaterialPtr first = load_card(cards[a]), second = load_card(cards[b]);
+    const MaterialField<2> field({{1, first}, {2, second}});
+    const double lo = std::max(first->lower_temperature(), second->lower_temperature());
+    const double hi = std::min(first->upper_temperature(), second->upper_temperature());
+    if (!(hi > lo))
+      continue;
+    for (int k = 0; k <= 40; ++k) {
+      std::array<dealii::types::material_id, width> ids;
+      dealii::VectorizedArray<double> t;
+      for (std::size_t l = 0; l < width; ++l) {
+        ids[l] = ((k + l) % 2) ? 2 : 1;
+        t[l] = lo + (hi - lo) * (k + 0.37 * l) / (40.0 + width);
+      }
+      const fe::VectorizedProperties<double> v = field.evaluate(ids, t);
+      for (std::size_t l = 0; l < width; ++l) {
+        PointProperties scalar;
+        const std::vector<double> one{t[l]};
+        field.evaluate(ids[l], one, scalar);
+        EXPECT_EQ(v.energy[l], scalar.energy[0]) << "T = " << t[l] << " K, lane " << l;
+        EXPECT_EQ(v.capacity[l], scalar.capacity[0]) << "T = " << t[l] << " K";
+        EXPECT_EQ(v.capacity_derivative[l], scalar.capacity_derivative[0])
+            << "T = " << t[l] << " K";
+        EXPECT_EQ(v.conductivity[l], scalar.conductivity[0]) << "T = " << t[l] << " K";
+        EXPECT_EQ(v.conductivity_derivative[l], scalar.conductivity_derivative[0])
+            << "T = " << t[l] << " K";
+      }
+    }
+    // a lane outside its material's range: the material's RangeError
+    std::array<dealii::types::material_id, width> ids;
+    ids.fill(1);
+    EXPECT_THROW(field.evaluate(ids, dealii::VectorizedArray<double>(
+                                         first->upper_temperature() + 1.0)),
+                 RangeError);
+  }
+}
+
 // One output object reused with changing selections (as an assembly loop reuses its
 // buffers): each call leaves exactly its own arrays, at the new length.
 TEST(MaterialFieldSelection, ReusedOutputFollowsSelection) {
@@ -150,14 +255,14 @@ TEST(MaterialFieldSelection, ReusedOutputFollowsSelection) {
   PointProperties out, reference;
   const std::vector<double> eight{4.0, 10.0, 77.0, 150.0, 293.0, 500.0, 900.0, 1200.0};
   const std::vector<double> three{20.0, 300.0, 1000.0};
-  field.evaluate(0, eight, out, PropertySet::conductivity);
-  field.evaluate(0, three, out, PropertySet::thermal);
+  field.evaluate(0, eight, out, fe::property_conduction);
+  field.evaluate(0, three, out, fe::property_thermal);
   field.evaluate(0, three, reference);
   EXPECT_TRUE(out.conductivity.empty());
   expect_same(out.energy, reference.energy, three, "energy");
   expect_same(out.capacity_derivative, reference.capacity_derivative, three,
               "capacity_derivative");
-  field.evaluate(0, eight, out, PropertySet::conductivity);
+  field.evaluate(0, eight, out, fe::property_conduction);
   field.evaluate(0, eight, reference);
   EXPECT_TRUE(out.energy.empty());
   expect_same(out.conductivity, reference.conductivity, eight, "conductivity");
@@ -179,11 +284,11 @@ TEST(MaterialFieldSelection, CellAndVectorizedOverloadsAgree) {
   const std::vector<double> t{300.0, 412.5, 600.0, 875.0};
   for (const auto& cell : tria.active_cell_iterators()) {
     PointProperties by_cell, by_id;
-    field.evaluate(*cell, t, by_cell, PropertySet::conductivity);
+    field.evaluate(*cell, t, by_cell, fe::property_conduction);
     field.evaluate(cell->material_id(), t, by_id);
     expect_same(by_cell.conductivity, by_id.conductivity, t, "conductivity");
     EXPECT_TRUE(by_cell.energy.empty());
-    field.evaluate(*cell, t, by_cell, PropertySet::thermal);
+    field.evaluate(*cell, t, by_cell, fe::property_thermal);
     expect_same(by_cell.capacity, by_id.capacity, t, "capacity");
     for (std::size_t q = 0; q < t.size(); ++q) {
       std::array<dealii::types::material_id, dealii::VectorizedArray<double>::size()> ids;
@@ -218,8 +323,9 @@ TEST(MaterialFieldSelection, OutOfRangeThrowsTheMaterialsErrorForEverySelection)
                                              {300.0, 400.0, 500.0, -1.0}};
   const std::vector<double> first_bad{99.0, 961.0, nan, -1.0};
   for (std::size_t b = 0; b < bad.size(); ++b)
-    for (const PropertySet s :
-         {PropertySet::all, PropertySet::thermal, PropertySet::conductivity}) {
+    for (const PropertyFlags s :
+         {fe::property_all, fe::property_thermal, fe::property_conduction,
+          fe::property_energy, fe::property_conductivity_derivative, fe::property_none}) {
       SCOPED_TRACE("case " + std::to_string(b) + ", selection " +
                    std::to_string(static_cast<unsigned>(s)));
       PointProperties out;

@@ -13,7 +13,8 @@
 namespace {
 
 using namespace quantacal;
-using namespace quantacal::fe;
+using namespace quantacal::fe;     // make_constant_material
+using namespace quantacal::solver; // the case and its run
 
 const std::string source_dir = QUANTACAL_SOURCE_DIR;
 

@@ -17,7 +17,7 @@
 namespace {
 
 namespace fs = std::filesystem;
-using namespace quantacal::fe;
+using namespace quantacal::solver;
 
 const std::string source_dir = QUANTACAL_SOURCE_DIR;
 
@@ -208,6 +208,43 @@ TEST(CaseFile, MisspeltKeyGetsDidYouMean) {
     EXPECT_EQ(e.line(), 6);
     EXPECT_NE(std::string(e.what()).find("did you mean 'first_step'?"), std::string::npos)
         << e.what();
+  }
+}
+
+// The whole message, in the shape docs/cases.md shows: the key is the value.
+TEST(CaseFile, UnknownKeyMessageNamesTheKeyAndTheChoices) {
+  try {
+    load_case_from_string(
+        "name: x\ngeometry: planar\nmesh: {generator: plate, size: [\"1 m\", \"1 m\"]}\n"
+        "materials: [{id: 1, card: c.yaml}]\ninitial_temperature: \"300 K\"\n"
+        "time: {end: \"1 s\", frist_step: \"0.1 s\"}\noutput: {folder: o}\n",
+        "t.yaml", ".", false);
+    FAIL() << "no error";
+  } catch (const quantacal::InputError& e) {
+    EXPECT_EQ(e.value(), "frist_step");
+    EXPECT_EQ(std::string(e.what()),
+              "t.yaml:6:20: time.frist_step = \"frist_step\": unknown key (did you mean "
+              "'first_step'?); expected one of: end, first_step, tolerance, min_step, "
+              "max_step, max_rejections, max_steps, adaptive");
+  }
+}
+
+// A key given twice is an error at the second one (YAML alone would keep the first
+// and drop the second without a word).
+TEST(CaseFile, RepeatedKeyIsRejectedWithItsLocation) {
+  try {
+    load_case_from_string(
+        "name: x\ngeometry: planar\nmesh: {generator: plate, size: [\"1 m\", \"1 m\"]}\n"
+        "materials: [{id: 1, card: c.yaml}]\ninitial_temperature: \"300 K\"\n"
+        "time:\n  end: \"1 s\"\n  first_step: \"0.1 s\"\n  end: \"2 s\"\n"
+        "output: {folder: o}\n",
+        "t.yaml", ".", false);
+    FAIL() << "no error";
+  } catch (const quantacal::InputError& e) {
+    EXPECT_EQ(e.field(), "time.end");
+    EXPECT_EQ(e.line(), 9);
+    EXPECT_EQ(e.column(), 3);
+    EXPECT_EQ(e.expected(), "duplicate key");
   }
 }
 

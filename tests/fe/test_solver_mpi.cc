@@ -12,7 +12,7 @@
 
 namespace {
 
-using namespace quantacal::fe;
+using namespace quantacal::solver;
 
 TEST(MpiRun, OneAndManyRanksAgreeAtTheProbes) {
   const unsigned int n = dealii::Utilities::MPI::n_mpi_processes(MPI_COMM_WORLD);

@@ -34,29 +34,29 @@ constexpr double fourier_end = 0.2;
 /// theta* at r = R/3 (between nodes on every mesh below) at Fo = 0.2, FE minus exact.
 double error_at_third(unsigned int radial_cells, unsigned int degree,
                       double fourier_step) {
-  fe::CaseDescription d;
+  solver::CaseDescription d;
   d.name = "validation convergence";
-  d.geometry = fe::Geometry::axisymmetric;
+  d.geometry = solver::Geometry::axisymmetric;
   d.mesh.kind =
-      fe::MeshSpec::Kind::cylinder; // ends (ids 1, 2) insulated: infinite cylinder
+      solver::MeshSpec::Kind::cylinder; // ends (ids 1, 2) insulated: infinite cylinder
   d.mesh.radius = radius;
   d.mesh.length = 0.002;
   d.mesh.cells = {radial_cells, 1};
-  fe::MaterialSpec m;
+  solver::MaterialSpec m;
   m.id = 1;
   m.material = fe::make_constant_material("constant (illustrative)", density,
                                           specific_heat, conductivity, 250.0, 1200.0);
   d.materials = {m};
   d.initial_temperature = t_initial;
-  fe::BoundarySpec b;
+  solver::BoundarySpec b;
   b.boundary_id = 0;
-  b.convection = fe::BoundarySpec::Convection{
-      fe::Curve{{t_fluid}, {biot * conductivity / radius}}, t_fluid};
+  b.convection = solver::BoundarySpec::Convection{
+      solver::Curve{{t_fluid}, {biot * conductivity / radius}}, t_fluid};
   d.boundaries = {b};
   d.time.end = fourier_end * time_scale;
   d.time.first_step = fourier_step * time_scale;
   d.time.adaptive = false;
-  fe::Probe p;
+  solver::Probe p;
   p.name = "third";
   p.point = {radius / 3.0, 0.001};
   d.output.probes = {p};
@@ -64,7 +64,7 @@ double error_at_third(unsigned int radial_cells, unsigned int degree,
   d.output.plot = false;
   d.solver.degree = degree;
   d.solver.newton_tolerance = 1e-10;
-  const fe::RunResult r = fe::run_case(d, reference::quiet_run());
+  const solver::RunResult r = solver::run_case(d, reference::quiet_run());
   EXPECT_TRUE(r.completed) << r.stop_reason;
   const reference::ConvectionSeries series(reference::Geometry::cylinder, biot, 100);
   const double theta = (r.probe_temperatures[0].back() - t_fluid) / (t_initial - t_fluid);

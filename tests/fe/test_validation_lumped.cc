@@ -54,23 +54,23 @@ TEST_P(LumpedValidation, CoolingTimeMatchesTheLumpedIntegral) {
   const double biot = q.coefficient * volume_to_area / k_min;
   ASSERT_LE(biot, 0.01);
 
-  fe::CaseDescription d;
+  solver::CaseDescription d;
   d.name = std::string("validation lumped ") + q.name;
-  d.geometry = fe::Geometry::axisymmetric;
-  d.mesh.kind = fe::MeshSpec::Kind::cylinder;
+  d.geometry = solver::Geometry::axisymmetric;
+  d.mesh.kind = solver::MeshSpec::Kind::cylinder;
   d.mesh.radius = radius;
   d.mesh.length = height;
   d.mesh.cells = {4, 8};
-  fe::MaterialSpec m;
+  solver::MaterialSpec m;
   m.id = 1;
   m.material = metal;
   d.materials = {m};
   d.initial_temperature = q.initial;
   for (unsigned int id : {0u, 1u, 2u}) { // mantle and both ends
-    fe::BoundarySpec b;
+    solver::BoundarySpec b;
     b.boundary_id = id;
-    b.convection =
-        fe::BoundarySpec::Convection{fe::Curve{{q.fluid}, {q.coefficient}}, q.fluid};
+    b.convection = solver::BoundarySpec::Convection{
+        solver::Curve{{q.fluid}, {q.coefficient}}, q.fluid};
     d.boundaries.push_back(b);
   }
   // run well past the lower crossing, so that neither crossing falls in the
@@ -80,7 +80,7 @@ TEST_P(LumpedValidation, CoolingTimeMatchesTheLumpedIntegral) {
   d.time.max_step = d.time.end / 50.0;
   d.time.first_step = 1e-3;
   d.time.tolerance = 0.01; // K
-  fe::Probe centre;
+  solver::Probe centre;
   centre.name = "centre";
   centre.point = {0.0, height / 2};
   d.output.probes = {centre};
@@ -90,7 +90,7 @@ TEST_P(LumpedValidation, CoolingTimeMatchesTheLumpedIntegral) {
   d.solver.degree = 2;
   d.solver.newton_tolerance = 1e-9;
 
-  const fe::RunResult r = fe::run_case(d, reference::quiet_run());
+  const solver::RunResult r = solver::run_case(d, reference::quiet_run());
   ASSERT_TRUE(r.completed) << r.stop_reason;
   double t_upper = -1, t_lower = -1;
   for (const auto& c : r.crossings) {

@@ -42,32 +42,32 @@ struct Case {
   double biot;
 };
 
-fe::CaseDescription make_case(const Case& c) {
-  fe::CaseDescription d;
+solver::CaseDescription make_case(const Case& c) {
+  solver::CaseDescription d;
   d.name = "validation series";
-  d.geometry = fe::Geometry::axisymmetric;
-  fe::MaterialSpec m;
+  d.geometry = solver::Geometry::axisymmetric;
+  solver::MaterialSpec m;
   m.id = 1;
   m.material = fe::make_constant_material("constant (illustrative)", density,
                                           specific_heat, conductivity, 250.0, 1200.0);
   d.materials = {m};
   d.initial_temperature = t_initial;
-  fe::BoundarySpec b;
-  b.convection = fe::BoundarySpec::Convection{
-      fe::Curve{{t_fluid}, {c.biot * conductivity / radius}}, t_fluid};
-  fe::Probe centre, surface;
+  solver::BoundarySpec b;
+  b.convection = solver::BoundarySpec::Convection{
+      solver::Curve{{t_fluid}, {c.biot * conductivity / radius}}, t_fluid};
+  solver::Probe centre, surface;
   centre.name = "centre";
   surface.name = "surface";
   if (c.geometry == reference::Geometry::sphere) {
     // Gmsh quadrant (examples/meshes): material 1, boundary 1 = surface; 2, 3 insulated.
-    d.mesh.kind = fe::MeshSpec::Kind::gmsh;
+    d.mesh.kind = solver::MeshSpec::Kind::gmsh;
     d.mesh.file = reference::source_root() + "/examples/meshes/sphere_quadrant.msh";
     b.boundary_id = 1;
     centre.point = {0.0, 0.0};
     surface.point = {radius, 0.0}; // a mesh vertex on the true sphere
   } else {
     // Infinite cylinder: a short axisymmetric strip with insulated ends (ids 1, 2).
-    d.mesh.kind = fe::MeshSpec::Kind::cylinder;
+    d.mesh.kind = solver::MeshSpec::Kind::cylinder;
     d.mesh.radius = radius;
     d.mesh.length = 0.01;
     d.mesh.cells = {16, 1};
@@ -97,7 +97,7 @@ class SeriesValidation : public ::testing::TestWithParam<Case> {};
 
 TEST_P(SeriesValidation, CentreAndSurfaceMatchTheExactSeries) {
   const Case c = GetParam();
-  const fe::RunResult r = fe::run_case(make_case(c), reference::quiet_run());
+  const solver::RunResult r = solver::run_case(make_case(c), reference::quiet_run());
   ASSERT_TRUE(r.completed) << r.stop_reason;
   const ConvectionSeries series(c.geometry, c.biot,
                                 100); // Carslaw and Jaeger, exact series
@@ -149,8 +149,8 @@ TEST(SeriesValidation, AgreesWithTheOneTermFormAtFourierOne) {
        1.5677}, // Incropera and DeWitt, Table 5.1
   };
   for (const auto& row : rows) {
-    const fe::RunResult r =
-        fe::run_case(make_case({row.geometry, row.biot}), reference::quiet_run());
+    const solver::RunResult r =
+        solver::run_case(make_case({row.geometry, row.biot}), reference::quiet_run());
     ASSERT_TRUE(r.completed) << r.stop_reason;
     const double centre = row.c1 * std::exp(-row.zeta1 * row.zeta1);
     const ConvectionSeries shape(row.geometry, row.biot, 1); // X(z): J0 or sin z / z

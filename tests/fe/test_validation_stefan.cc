@@ -74,33 +74,33 @@ TEST(StefanValidation, FrontPositionMatchesNeumannsSolution) {
   const double alpha = neumann.solid_diffusivity();
   const double t_last = std::pow(stations.back() / (2 * neumann.lambda()), 2) / alpha;
 
-  fe::CaseDescription d;
+  solver::CaseDescription d;
   d.name = "validation stefan";
-  d.geometry = fe::Geometry::planar;
-  d.mesh.kind = fe::MeshSpec::Kind::plate;
+  d.geometry = solver::Geometry::planar;
+  d.mesh.kind = solver::MeshSpec::Kind::plate;
   d.mesh.origin = {0.0, 0.0}; // m
   d.mesh.size = {0.2,
                  0.001}; // m: 0.2 m deep is semi-infinite to erfc(3.4) ~ 1e-6 at the end
   d.mesh.cells = {400, 1}; // 0.5 mm cells
-  fe::MaterialSpec m;
+  solver::MaterialSpec m;
   m.id = 1;
   m.material = phase_change_material();
   d.materials = {m};
   d.initial_temperature = initial;
-  fe::BoundarySpec b;
+  solver::BoundarySpec b;
   b.boundary_id = 0; // x = 0
   // The face goes from T_i to T_0 over 1 ms rather than at once: a jump in a
   // Dirichlet value makes the consistent-mass Galerkin solution overshoot at
   // the first steps. The ramp delays the front by about 0.5 ms, below 0.2 % of
   // the first crossing time (0.28 s), 0.1 % in position.
-  b.temperature = fe::Curve{{0.0, 1e-3}, {initial, surface}};
+  b.temperature = solver::Curve{{0.0, 1e-3}, {initial, surface}};
   d.boundaries = {b};
   d.time.end = 1.3 * t_last;
   d.time.first_step = 1e-4;
   d.time.tolerance = 0.05; // K
   d.time.max_step = t_last / 100;
   for (const double x : stations) {
-    fe::Probe pr;
+    solver::Probe pr;
     pr.name = "x=" + std::to_string(x);
     pr.point = {x, 0.0005};
     d.output.probes.push_back(pr);
@@ -111,12 +111,12 @@ TEST(StefanValidation, FrontPositionMatchesNeumannsSolution) {
   d.solver.degree = 1;
   d.solver.newton_tolerance = 1e-9;
 
-  const fe::RunResult r = fe::run_case(d, reference::quiet_run());
+  const solver::RunResult r = solver::run_case(d, reference::quiet_run());
   ASSERT_TRUE(r.completed) << r.stop_reason;
   ASSERT_EQ(r.crossings.size(), stations.size());
   double worst = 0.0;
   for (std::size_t i = 0; i < stations.size(); ++i) {
-    const fe::Crossing& c = r.crossings[i];
+    const solver::Crossing& c = r.crossings[i];
     ASSERT_TRUE(c.crossed) << c.probe;
     // the front passed station x at the crossing time: compare X(t_cross) with x
     const double front = neumann.front_position(c.time);

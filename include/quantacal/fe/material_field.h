@@ -4,13 +4,13 @@
  * @brief Material properties at the quadrature points of a deal.II cell.
  *
  * Why it exists: a finite-element heat-conduction solver needs, at every
- * quadrature point of every cell and every Newton iteration, the stored
- * energy per reference volume E(T) = rho e(T), the volumetric heat capacity
- * dE/dT, its derivative d^2E/dT^2, the conductivity k(T) and dk/dT. The
- * material of a cell is chosen by its deal.II material id. MaterialField
- * keeps the id -> Material map and fills all five arrays with one call per
- * cell (the table's batch path), so an assembly loop never touches a card,
- * a model or a unit.
+ * quadrature point of every cell and every Newton iteration, some of the
+ * stored energy per reference volume E(T) = rho e(T), the volumetric heat
+ * capacity dE/dT, its derivative d^2E/dT^2, the conductivity k(T) and dk/dT.
+ * The material of a cell is chosen by its deal.II material id. MaterialField
+ * keeps the id -> Material map and fills the arrays an assembly asks for with
+ * one call per cell (the table's batch path), so an assembly loop never
+ * touches a card, a model or a unit.
  *
  * Energies are on the reference-volume basis: `Material::basis_factor(Basis::volume)`
  * = rho/M times the molar table, relative to the material's reference temperature
@@ -18,12 +18,60 @@
  * derivative of the interpolated energy, a residual written with E(T) and a
  * Jacobian written with dE/dT are consistent, and an energy-form solver
  * conserves energy to its Newton tolerance.
+ *
+ * **Asking only for what is used.** Like deal.II's UpdateFlags, a PropertyFlags
+ * argument names the properties to compute: a residual without its Jacobian
+ * needs the energy alone, a stiffness term the conductivity and, for the
+ * Jacobian, its derivative. A property is the same, bit for bit, whichever
+ * flags computed it.
+ * @code
+ *   using namespace quantacal::fe;
+ *   field.evaluate(*cell, temperatures, properties, property_energy | property_capacity);
+ *   // properties.energy[q], properties.capacity[q]; the other arrays are empty
+ * @endcode
+ *
+ * **Threads (deal.II's WorkStream).** A MaterialField is immutable after
+ * construction and its evaluate() is const, so one field is shared by all
+ * threads; what each thread needs of its own is the output: keep the
+ * PointProperties (and the temperature buffer) in the per-thread scratch
+ * object, as deal.II keeps FEValues there. The constructor builds the cached
+ * table of every material before the first assembly, so no thread waits for
+ * (or races) a build; Material::table() is itself built once under
+ * std::call_once, so a Material used outside a field is thread-safe too.
+ * @code
+ *   using namespace quantacal::fe;
+ *   struct Scratch {
+ *     Scratch(const Mapping<dim>& m, const FiniteElement<dim>& fe,
+ *             const Quadrature<dim>& q)
+ *         : fe_values(m, fe, q, update_values | update_JxW_values),
+ *           temperatures(q.size()) {}
+ *     Scratch(const Scratch& s)
+ *         : fe_values(s.fe_values.get_mapping(), s.fe_values.get_fe(),
+ *                     s.fe_values.get_quadrature(), s.fe_values.get_update_flags()),
+ *           temperatures(s.temperatures.size()) {}
+ *     FEValues<dim> fe_values;
+ *     std::vector<double> temperatures;
+ *     PointProperties properties; // this thread's output arrays
+ *   };
+ *   const MaterialField<dim> field({{1, steel}, {2, copper}}); // shared
+ *   WorkStream::run(
+ *       dof_handler.begin_active(), dof_handler.end(),
+ *       [&](const auto& cell, Scratch& s, CopyData& c) {
+ *         s.fe_values.reinit(cell);
+ *         s.fe_values.get_function_values(solution, s.temperatures);
+ *         field.evaluate(*cell, s.temperatures, s.properties,
+ *                        property_energy | property_conductivity);
+ *         // ... c from s.properties.energy and s.properties.conductivity
+ *       },
+ *       copier, Scratch(mapping, fe, quadrature), CopyData(fe.n_dofs_per_cell()));
+ * @endcode
  */
 #ifndef QUANTACAL_FE_MATERIAL_FIELD_H
 #define QUANTACAL_FE_MATERIAL_FIELD_H
 
 #include <quantacal/material/material.h>
 
+#include <deal.II/base/array_view.h>
 #include <deal.II/base/types.h>
 #include <deal.II/base/vectorization.h>
 #include <deal.II/grid/tria_accessor.h>
@@ -38,34 +86,48 @@
 namespace quantacal::fe {
 
 /**
- * Which properties MaterialField::evaluate computes.
+ * Which properties MaterialField::evaluate computes, as bit flags combined
+ * with `|` (the way deal.II's UpdateFlags are).
  *
- * Why it exists: an assembly loop rarely needs all five properties at the
- * same points. A lumped or mass quadrature needs the stored energy and the
- * capacity at its points, the stiffness term needs the conductivity at the
- * Gauss points. The two groups come from different sources (the cached
- * table's batch for the first, the conductivity model for the second), so
- * asking for one group skips the other's work entirely. Values of a group
- * are the same, bit for bit, whichever selection computed them.
+ * The three thermal properties come from one batch call of the material's
+ * cached table, the two conduction properties from its conductivity model;
+ * a call that names no flag of a group skips that group's work entirely.
  */
-enum class PropertySet : unsigned {
-  /// energy, capacity and capacity_derivative (one batch call of the cached table)
-  thermal = 1u,
-  /// conductivity and conductivity_derivative (the material's conductivity model)
-  conductivity = 2u,
-  /// all five properties, what the overloads without a selection compute
-  all = 3u
+enum PropertyFlags : unsigned int {
+  property_none = 0,                       ///< nothing (the range is still checked)
+  property_energy = 0x01,                  ///< E = rho e(T), J/m^3
+  property_capacity = 0x02,                ///< dE/dT = rho c_p(T), J/m^3/K
+  property_capacity_derivative = 0x04,     ///< d^2E/dT^2, J/m^3/K^2
+  property_conductivity = 0x08,            ///< k(T), W/m/K
+  property_conductivity_derivative = 0x10, ///< dk/dT, W/m/K^2
+  /// the three of the cached table
+  property_thermal = property_energy | property_capacity | property_capacity_derivative,
+  /// the two of the conductivity model
+  property_conduction = property_conductivity | property_conductivity_derivative,
+  /// all five, what evaluate() computes without flags
+  property_all = property_thermal | property_conduction
 };
 
-/** Union of two selections. */
-constexpr PropertySet operator|(PropertySet a, PropertySet b) {
-  return static_cast<PropertySet>(static_cast<unsigned>(a) | static_cast<unsigned>(b));
+/** Union of two sets of flags. */
+constexpr PropertyFlags operator|(PropertyFlags a, PropertyFlags b) {
+  return static_cast<PropertyFlags>(static_cast<unsigned int>(a) |
+                                    static_cast<unsigned int>(b));
 }
 
-/** True if @p selection contains every property of @p part. */
-constexpr bool contains(PropertySet selection, PropertySet part) {
-  return (static_cast<unsigned>(selection) & static_cast<unsigned>(part)) ==
-         static_cast<unsigned>(part);
+/** Intersection of two sets of flags. */
+constexpr PropertyFlags operator&(PropertyFlags a, PropertyFlags b) {
+  return static_cast<PropertyFlags>(static_cast<unsigned int>(a) &
+                                    static_cast<unsigned int>(b));
+}
+
+/** Adds the flags of @p b to @p a. */
+inline PropertyFlags& operator|=(PropertyFlags& a, PropertyFlags b) {
+  return a = a | b;
+}
+
+/** True if @p flags contains every flag of @p part. */
+constexpr bool contains(PropertyFlags flags, PropertyFlags part) {
+  return (flags & part) == part;
 }
 
 /**
@@ -134,66 +196,44 @@ public:
   std::vector<dealii::types::material_id> material_ids() const;
 
   /**
-   * Fills @p out at the temperatures @p temperatures of the points of
+   * Fills the properties of @p flags at the temperatures of the points of
    * @p cell (the cell's material id selects the material).
+   *
+   * Each temperature is checked against the material's valid range once per
+   * call, whatever the flags. A property equals, bit for bit, the same
+   * property computed with other flags.
    * @param cell any cell iterator of a Triangulation<dim> (or a DoF iterator)
-   * @param temperatures temperatures at the points, K
-   * @param out resized to temperatures.size() and filled (SI, per reference volume)
+   * @param temperatures temperatures at the points, K (a std::vector converts)
+   * @param out the arrays of @p flags are resized to temperatures.size() and
+   *        filled (SI, per reference volume); the other arrays are emptied
+   * @param flags which properties to compute (default: all five)
    * @throws RangeError if a temperature is outside the material's valid range
+   *         (the material's own message, naming it and the first such point)
    * @throws std::out_of_range if the cell's material id has no material
    */
   void evaluate(const dealii::CellAccessor<dim, dim>& cell,
-                const std::vector<double>& temperatures, PointProperties& out) const;
+                dealii::ArrayView<const double> temperatures, PointProperties& out,
+                PropertyFlags flags = property_all) const;
 
   /**
    * Same as the cell overload, selecting the material by id.
    * @param id material id
    * @param temperatures K
-   * @param out filled, SI per reference volume
-   */
-  void evaluate(dealii::types::material_id id, const std::vector<double>& temperatures,
-                PointProperties& out) const;
-
-  /**
-   * Fills only the properties of @p selection at the temperatures of the
-   * points of @p cell (the cell's material id selects the material).
-   *
-   * An assembly that needs E and dE/dT at its mass points and k, dk/dT at its
-   * Gauss points calls this twice with PropertySet::thermal and
-   * PropertySet::conductivity and so does half the work of two full calls.
-   * Each temperature is checked against the material's valid range once per
-   * call. The selected arrays equal, bit for bit, those of the overloads
-   * without a selection.
-   * @param cell any cell iterator of a Triangulation<dim> (or a DoF iterator)
-   * @param temperatures temperatures at the points, K
-   * @param out the arrays of @p selection are resized to temperatures.size()
-   *        and filled (SI, per reference volume); the other arrays are emptied
-   * @param selection which properties to compute
-   * @throws RangeError if a temperature is outside the material's valid range
-   *         (the same exception, message included, as the full evaluation)
-   * @throws std::out_of_range if the cell's material id has no material
-   */
-  void evaluate(const dealii::CellAccessor<dim, dim>& cell,
-                const std::vector<double>& temperatures, PointProperties& out,
-                PropertySet selection) const;
-
-  /**
-   * Same as the cell overload with a selection, selecting the material by id.
-   * @param id material id
-   * @param temperatures K
-   * @param out the arrays of @p selection filled (SI per reference volume), the
-   *        others emptied
-   * @param selection which properties to compute
+   * @param out the arrays of @p flags filled (SI per reference volume), the others
+   *        emptied
+   * @param flags which properties to compute (default: all five)
    * @throws RangeError if a temperature is outside the material's valid range
    * @throws std::out_of_range if @p id has no material
    */
-  void evaluate(dealii::types::material_id id, const std::vector<double>& temperatures,
-                PointProperties& out, PropertySet selection) const;
+  void evaluate(dealii::types::material_id id,
+                dealii::ArrayView<const double> temperatures, PointProperties& out,
+                PropertyFlags flags = property_all) const;
 
   /**
    * SIMD overload for matrix-free operators: lane l of @p temperature belongs
    * to a cell with material id @p ids[l] (lanes of a cell batch may come from
-   * cells of different materials). With Debian's deal.II the batch width is 1.
+   * cells of different materials). Lane by lane the values equal those of the
+   * scalar overloads. With Debian's deal.II the batch width is 1.
    * @param ids material id per lane
    * @param temperature temperatures per lane, K
    * @return the five properties per lane, SI per reference volume
@@ -230,6 +270,14 @@ private:
   const Entry& entry(dealii::types::material_id id) const;
   /** Throws the material's RangeError for the first temperature outside its range. */
   static void check_range(const Entry& e, const double* temperatures, std::size_t n);
+  /** The thermal properties of @p flags, from one batch call of the table. */
+  static void evaluate_thermal(const Entry& material, const double* temperatures,
+                               std::size_t count, PointProperties& out,
+                               PropertyFlags flags);
+  /** The conduction properties of @p flags, from the conductivity model. */
+  static void evaluate_conduction(const Entry& material, const double* temperatures,
+                                  std::size_t count, PointProperties& out,
+                                  PropertyFlags flags);
   std::map<dealii::types::material_id, Entry> entries_;
 };
 

@@ -44,7 +44,7 @@ inline std::string source_root() {
  * @param time s, inside the run's time range
  * @return K
  */
-inline double probe_at(const fe::RunResult& result, std::size_t probe, double time) {
+inline double probe_at(const solver::RunResult& result, std::size_t probe, double time) {
   const auto& t = result.times;
   const auto& v = result.probe_temperatures.at(probe);
   if (t.empty() || time < t.front() || time > t.back() * (1 + 1e-12))
@@ -60,8 +60,8 @@ inline double probe_at(const fe::RunResult& result, std::size_t probe, double ti
 }
 
 /** Options for a quiet in-process run: no files, no log. */
-inline fe::RunOptions quiet_run() {
-  fe::RunOptions o;
+inline solver::RunOptions quiet_run() {
+  solver::RunOptions o;
   o.write_output = false;
   o.log = nullptr;
   o.progress = false;

@@ -1,23 +1,24 @@
 // SPDX-License-Identifier: Apache-2.0
-// Internal: output files of a run (no deal.II). Every file is written to a
-// temporary name in the same folder and renamed, so a crash never leaves a
-// truncated file behind.
-#ifndef QUANTACAL_LIB_FE_REPORT_H
-#define QUANTACAL_LIB_FE_REPORT_H
+// Internal: the result files of a run other than the fields (no deal.II):
+// probes.csv, energy.csv, summary.yaml and the gnuplot script of the cooling
+// curves. Every file is written to a temporary name in the same folder and
+// renamed, so a crash never leaves a truncated file behind.
+#ifndef QUANTACAL_LIB_SOLVER_RESULT_FILES_H
+#define QUANTACAL_LIB_SOLVER_RESULT_FILES_H
 
 #include <quantacal/solver/solver.h>
 
 #include <string>
 #include <vector>
 
-namespace quantacal::fe::detail {
+namespace quantacal::solver::detail {
 
 /** Writes @p content to @p path through "<path>.tmp" and a rename; throws
  * std::ios_base::failure. */
 void write_file_atomically(const std::string& path, const std::string& content);
 
-/** Checks that @p folder exists or can be made, and can be written; throws CardError at
- * @p where. */
+/** Checks that @p folder exists or can be made, and can be written; throws InputError
+ * at @p where. */
 void prepare_output_folder(const std::string& folder, const std::string& case_file,
                            const CaseLocation& where);
 
@@ -36,17 +37,18 @@ std::vector<Crossing> find_crossings(const RunResult& result,
                                      const std::vector<double>& temperatures);
 
 /**
- * Writes cooling_curves.gp next to probes.csv and runs gnuplot for
- * cooling_curves.svg. Returns "" on success or a warning text (gnuplot
- * missing or failing never fails the run).
+ * Writes the gnuplot script cooling_curves.gp next to probes.csv: run in that
+ * folder, it plots every probe history into cooling_curves.svg.tmp. Nothing is
+ * written without probes.
+ * @return the script's path (also appended to @p written), or "" if none was written
  */
-std::string plot_cooling_curves(const std::string& folder, const RunResult& result,
-                                const std::string& title,
-                                std::vector<std::string>& written);
+std::string write_plot_script(const std::string& folder, const RunResult& result,
+                              const std::string& title,
+                              std::vector<std::string>& written);
 
 /** Shortest round-trip text of a double. */
 std::string number(double value);
 
-} // namespace quantacal::fe::detail
+} // namespace quantacal::solver::detail
 
 #endif

@@ -1,0 +1,160 @@
+// SPDX-License-Identifier: Apache-2.0
+// Reading the `boundaries` and `sources` of a case file (docs/cases.md).
+#include "case_reader.h"
+
+#include <set>
+
+namespace quantacal::solver::detail {
+namespace {
+
+using quantacal::detail::index_path;
+
+std::optional<Curve> read_fixed_temperature(const CaseReader& reader,
+                                            const YAML::Node& entry,
+                                            const std::string& field) {
+  if (entry["convection"] || entry["radiation"] || entry["insulated"])
+    reader.fail(
+        entry["temperature"], field + ".temperature",
+        "a fixed temperature alone (not with convection, radiation or insulated)");
+  return reader.curve(entry["temperature"], field + ".temperature",
+                      {dimension::time(), "a time", dimension::temperature(),
+                       "a temperature", /*positive_y=*/true});
+}
+
+BoundarySpec::Convection read_convection(const CaseReader& reader, const YAML::Node& node,
+                                         const std::string& field) {
+  reader.check_keys(node, field, {"h", "ambient"});
+  for (const char* key : {"h", "ambient"})
+    if (!node[key])
+      reader.fail_missing(
+          node, field, key,
+          key == std::string("h")
+              ? "a heat-transfer coefficient or a table [[T_surface, h], ...]"
+              : "an ambient temperature");
+  BoundarySpec::Convection convection;
+  convection.coefficient = reader.curve(
+      node["h"], field + ".h",
+      {dimension::temperature(), "a surface temperature",
+       dimension::heat_transfer_coefficient(),
+       "a heat-transfer coefficient (e.g. \"500 W/m^2/K\")", /*positive_y=*/false});
+  convection.ambient_temperature =
+      reader.temperature(node["ambient"], field + ".ambient");
+  return convection;
+}
+
+BoundarySpec::Radiation read_radiation(const CaseReader& reader, const YAML::Node& node,
+                                       const std::string& field) {
+  reader.check_keys(node, field, {"emissivity", "ambient"});
+  for (const char* key : {"emissivity", "ambient"})
+    if (!node[key])
+      reader.fail_missing(node, field, key,
+                          key == std::string("ambient") ? "an ambient temperature"
+                                                        : "an emissivity in (0, 1]");
+  BoundarySpec::Radiation radiation;
+  radiation.emissivity =
+      reader.number(node["emissivity"], field + ".emissivity", "an emissivity in (0, 1]");
+  if (!(radiation.emissivity > 0.0 && radiation.emissivity <= 1.0))
+    reader.fail(node["emissivity"], field + ".emissivity", "an emissivity in (0, 1]");
+  radiation.ambient_temperature = reader.temperature(node["ambient"], field + ".ambient");
+  return radiation;
+}
+
+void check_insulated(const CaseReader& reader, const YAML::Node& entry,
+                     const std::string& field) {
+  if (!reader.boolean(entry["insulated"], field + ".insulated"))
+    reader.fail(entry["insulated"], field + ".insulated",
+                "true (omit the key otherwise)");
+  if (entry["convection"] || entry["radiation"])
+    reader.fail(entry["insulated"], field + ".insulated",
+                "insulated alone (not with convection or radiation)");
+}
+
+/** One entry of `boundaries`; @p seen holds the boundary ids so far. */
+BoundarySpec read_boundary(const CaseReader& reader, const YAML::Node& entry,
+                           const std::string& field, std::set<unsigned int>& seen) {
+  reader.check_keys(entry, field,
+                    {"id", "temperature", "convection", "radiation", "insulated"});
+  if (!entry["id"])
+    reader.fail_missing(entry, field, "id", "a boundary id");
+  BoundarySpec spec;
+  spec.boundary_id =
+      reader.count(entry["id"], field + ".id", "a boundary id from 0 to 254", 0, 254);
+  spec.where = reader.where(entry["id"], field + ".id");
+  if (!seen.insert(spec.boundary_id).second)
+    reader.fail(entry["id"], field + ".id",
+                "each boundary id once (combine convection and radiation in one entry)");
+  if (entry["temperature"])
+    spec.temperature = read_fixed_temperature(reader, entry, field);
+  if (entry["convection"])
+    spec.convection = read_convection(reader, entry["convection"], field + ".convection");
+  if (entry["radiation"])
+    spec.radiation = read_radiation(reader, entry["radiation"], field + ".radiation");
+  if (entry["insulated"])
+    check_insulated(reader, entry, field);
+  if (!entry["temperature"] && !entry["convection"] && !entry["radiation"] &&
+      !entry["insulated"])
+    reader.fail(entry, field,
+                "one of temperature, convection, radiation or insulated: true");
+  return spec;
+}
+
+HeatSource read_source(const CaseReader& reader, const YAML::Node& entry,
+                       const std::string& field) {
+  reader.check_keys(entry, field, {"power_density", "materials", "start", "end"});
+  if (!entry["power_density"])
+    reader.fail_missing(entry, field, "power_density",
+                        "a power density (e.g. \"2 MW/m^3\")");
+  HeatSource source;
+  source.power_density =
+      reader.quantity(entry["power_density"], field + ".power_density",
+                      dimension::power_density(), "a power density (e.g. \"2 MW/m^3\")");
+  if (entry["materials"]) {
+    const YAML::Node ids = entry["materials"];
+    if (!ids.IsSequence())
+      reader.fail(ids, field + ".materials", "a list of material ids");
+    for (std::size_t j = 0; j < ids.size(); ++j)
+      source.material_ids.push_back(reader.count(ids[j],
+                                                 index_path(field + ".materials", j),
+                                                 "a material id from 0 to 255", 0, 255));
+  }
+  if (entry["start"])
+    source.start =
+        reader.quantity(entry["start"], field + ".start", dimension::time(), "a time");
+  if (entry["end"])
+    source.end =
+        reader.quantity(entry["end"], field + ".end", dimension::time(), "a time");
+  if (!(source.end > source.start))
+    reader.fail(entry["end"] ? entry["end"] : entry, field + ".end",
+                "an end time after the start time");
+  source.where = reader.where(entry, field);
+  return source;
+}
+
+} // namespace
+
+void read_boundaries(const CaseReader& reader, const YAML::Node& root,
+                     CaseDescription& description) {
+  if (!root["boundaries"])
+    return;
+  const YAML::Node list = root["boundaries"];
+  if (!list.IsSequence())
+    reader.fail(list, "boundaries", "a list of boundary conditions {id, ...}");
+  std::set<unsigned int> seen;
+  for (std::size_t i = 0; i < list.size(); ++i)
+    description.boundaries.push_back(
+        read_boundary(reader, list[i], index_path("boundaries", i), seen));
+}
+
+void read_sources(const CaseReader& reader, const YAML::Node& root,
+                  CaseDescription& description) {
+  if (!root["sources"])
+    return;
+  const YAML::Node list = root["sources"];
+  if (!list.IsSequence())
+    reader.fail(list, "sources",
+                "a list of heat sources {power_density, materials, start, end}");
+  for (std::size_t i = 0; i < list.size(); ++i)
+    description.sources.push_back(read_source(reader, list[i], index_path("sources", i)));
+}
+
+} // namespace quantacal::solver::detail

@@ -1,0 +1,67 @@
+// SPDX-License-Identifier: Apache-2.0
+// Internal: one TR-BDF2 step (trbdf2.h) from the current time level: the
+// trapezoidal stage to t + gamma h, the BDF2 stage to t + h (each a Newton
+// solve, newton.h), the check that the new field is physical, and the local
+// error estimate of the step-size control.
+#ifndef QUANTACAL_LIB_SOLVER_TIME_STEPPER_H
+#define QUANTACAL_LIB_SOLVER_TIME_STEPPER_H
+
+#include "energy_ledger.h"
+#include "newton.h"
+#include "step_control.h"
+
+namespace quantacal::solver::detail {
+
+template <int dim>
+class TimeStepper {
+public:
+  TimeStepper(const CaseDescription& description,
+              const Discretization<dim>& discretization, StageSolver<dim>& stages);
+
+  /**
+   * The state at the start: the temperature field and, assembled there, its stored
+   * energy, heat flow and sums.
+   */
+  void start(const Vector& temperature, const Vector& stored_energy,
+             const Vector& heat_flow, const AssembledSums& sums);
+
+  /**
+   * Solves both stages of @p plan from the current level; the result is kept for
+   * error_estimate() and accept().
+   * @return what the step adds to the energy ledger
+   * @throws StageFailure if a stage fails or the new field has T <= 0 somewhere
+   */
+  StepHeat attempt(const StepPlan& plan);
+
+  /**
+   * Milne-type estimate of the local error, K (max over the nodes): the new field
+   * against the quadratic through the previous, current and stage fields
+   * extrapolated to the new time (linear through the current and stage fields when
+   * there is no previous step, which overestimates and so starts safely).
+   */
+  double error_estimate(const StepPlan& plan, double previous_step,
+                        bool has_previous_step) const;
+
+  /** Makes the attempted step the current level. */
+  void accept();
+
+  /** The temperature at the current level (owned entries). */
+  const Vector& temperature() const { return current_; }
+  /** The sums assembled at the current level. */
+  const AssembledSums& sums() const { return current_sums_; }
+
+private:
+  const CaseDescription& description_;
+  const Discretization<dim>& discretization_;
+  StageSolver<dim>& stages_;
+  const bool capacity_form_;
+  Vector current_, previous_, stage_, end_;
+  Vector current_energy_, current_flow_, stage_energy_, stage_flow_, end_energy_,
+      end_flow_;
+  Vector known_, capacity_reference_;
+  AssembledSums current_sums_, end_sums_;
+};
+
+} // namespace quantacal::solver::detail
+
+#endif
