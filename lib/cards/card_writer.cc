@@ -4,6 +4,7 @@
 
 #include <quantacal/cards/card.h>
 #include <quantacal/common/exceptions.h>
+#include <quantacal/common/files.h>
 #include <quantacal/common/format.h>
 #include <quantacal/version.h>
 
@@ -267,26 +268,7 @@ std::string read_card_text(const std::string& path) {
 
 void save_card(const std::string& path, const std::string& text) {
   (void)load_card_from_string(text, path);
-  const std::string tmp = path + ".tmp";
-  {
-    std::ofstream out(tmp, std::ios::binary | std::ios::trunc);
-    if (!out)
-      throw std::ios_base::failure("cannot write " + tmp);
-    out << text;
-    out.close();
-    if (!out) {
-      std::error_code ignored;
-      fs::remove(tmp, ignored);
-      throw std::ios_base::failure("cannot write " + tmp);
-    }
-  }
-  std::error_code ec;
-  fs::rename(tmp, path, ec);
-  if (ec) {
-    std::error_code ignored;
-    fs::remove(tmp, ignored);
-    throw std::ios_base::failure("cannot write " + path + ": " + ec.message());
-  }
+  write_file_atomically(path, text);
 }
 
 } // namespace quantacal

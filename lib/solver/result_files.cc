@@ -20,25 +20,6 @@ std::string number(double value) {
   return format_double(value);
 }
 
-void write_file_atomically(const std::string& path, const std::string& content) {
-  const std::string tmp = path + ".tmp";
-  {
-    std::ofstream out(tmp, std::ios::binary | std::ios::trunc);
-    if (!out)
-      throw std::ios_base::failure("cannot write " + tmp);
-    out << content;
-    out.flush();
-    if (!out)
-      throw std::ios_base::failure("writing " + tmp + " failed (disk full?)");
-  }
-  std::error_code ec;
-  fs::rename(tmp, path, ec);
-  if (ec) {
-    fs::remove(tmp, ec);
-    throw std::ios_base::failure("cannot rename " + tmp + " to " + path);
-  }
-}
-
 void prepare_output_folder(const std::string& folder, const std::string& case_file,
                            const CaseLocation& where) {
   std::error_code ec;

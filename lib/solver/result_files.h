@@ -2,20 +2,18 @@
 // Internal: the result files of a run other than the fields (no deal.II):
 // probes.csv, energy.csv, summary.yaml and the gnuplot script of the cooling
 // curves. Every file is written to a temporary name in the same folder and
-// renamed, so a crash never leaves a truncated file behind.
+// renamed (quantacal::write_file_atomically), so a crash never leaves a
+// truncated file behind.
 #ifndef QUANTACAL_LIB_SOLVER_RESULT_FILES_H
 #define QUANTACAL_LIB_SOLVER_RESULT_FILES_H
 
+#include <quantacal/common/files.h>
 #include <quantacal/solver/solver.h>
 
 #include <string>
 #include <vector>
 
 namespace quantacal::solver::detail {
-
-/** Writes @p content to @p path through "<path>.tmp" and a rename; throws
- * std::ios_base::failure. */
-void write_file_atomically(const std::string& path, const std::string& content);
 
 /** Checks that @p folder exists or can be made, and can be written; throws InputError
  * at @p where. */
