@@ -52,16 +52,6 @@ std::string canonical_name(const std::string& file) {
 
 MaterialPtr load_file(const std::string& path, LoadChain& chain);
 
-YAML::Node parse_yaml(const std::string& text, const std::string& file) {
-  try {
-    return YAML::Load(text);
-  } catch (const YAML::Exception& e) {
-    const int line = e.mark.is_null() ? 0 : e.mark.line + 1;
-    const int column = e.mark.is_null() ? 0 : e.mark.column + 1;
-    throw CardError(file, line, column, "", "", "YAML syntax error: " + e.msg);
-  }
-}
-
 void read_sources(CardReader& reader, const YAML::Node& list, const std::string& path,
                   MaterialData& data) {
   reader.expect_sequence(list, path);

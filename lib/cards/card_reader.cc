@@ -12,6 +12,16 @@
 
 namespace quantacal::detail {
 
+YAML::Node parse_yaml(const std::string& text, const std::string& file) {
+  try {
+    return YAML::Load(text);
+  } catch (const YAML::Exception& e) {
+    const int line = e.mark.is_null() ? 0 : e.mark.line + 1;
+    const int column = e.mark.is_null() ? 0 : e.mark.column + 1;
+    throw InputError(file, line, column, "", "", "YAML syntax error: " + e.msg);
+  }
+}
+
 std::string join_path(const std::string& parent, const std::string& key) {
   return parent.empty() ? key : parent + "." + key;
 }

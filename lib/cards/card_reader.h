@@ -23,6 +23,13 @@
 namespace quantacal::detail {
 
 /** "a.b", "a[3]" */
+/**
+ * The YAML document in @p text: the one parse of every card and case file.
+ * @throws InputError at the line and column where the parser stopped
+ *         ("YAML syntax error: ..."), naming @p file
+ */
+YAML::Node parse_yaml(const std::string& text, const std::string& file);
+
 std::string join_path(const std::string& parent, const std::string& key);
 std::string index_path(const std::string& parent, std::size_t index);
 

@@ -2,6 +2,8 @@
 // Writing cards: text edits of a card that keep its comments and layout.
 #include <quantacal/cards/card_writer.h>
 
+#include "card_reader.h"
+
 #include <quantacal/cards/card.h>
 #include <quantacal/common/exceptions.h>
 #include <quantacal/common/files.h>
@@ -90,16 +92,6 @@ std::size_t line_start(const std::string& text, std::size_t pos) {
 std::size_t next_line(const std::string& text, std::size_t pos) {
   const std::size_t nl = text.find('\n', pos);
   return nl == std::string::npos ? text.size() : nl + 1;
-}
-
-YAML::Node parse(const std::string& text, const std::string& file) {
-  try {
-    return YAML::Load(text);
-  } catch (const YAML::Exception& e) {
-    throw InputError(file, e.mark.is_null() ? 0 : e.mark.line + 1,
-                     e.mark.is_null() ? 0 : e.mark.column + 1, "", "",
-                     "YAML syntax error: " + e.msg);
-  }
 }
 
 /** The edit writing one new value: in place, or as a new key of a block map. */
@@ -236,7 +228,7 @@ std::string card_quantity_text(double si, const std::string& unit, int digits) {
 
 std::string edit_card(const std::string& text, const std::string& file,
                       const CardChanges& changes, const std::string& output_file) {
-  const YAML::Node root = parse(text, file);
+  const YAML::Node root = detail::parse_yaml(text, file);
   std::vector<Edit> edits;
   for (const ParameterValue& change : changes.values)
     edits.push_back(value_edit(text, file, root, change));

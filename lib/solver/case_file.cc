@@ -266,14 +266,7 @@ void read_materials(const CaseReader& reader, const YAML::Node& root, bool load_
 CaseDescription load_case_from_string(const std::string& text, const std::string& file,
                                       const std::string& base_directory,
                                       bool load_materials) {
-  YAML::Node root;
-  try {
-    root = YAML::Load(text);
-  } catch (const YAML::Exception& e) {
-    throw InputError(file, e.mark.line >= 0 ? e.mark.line + 1 : 0,
-                     e.mark.column >= 0 ? e.mark.column + 1 : 0, "", "",
-                     "expected valid YAML (" + e.msg + ")");
-  }
+  const YAML::Node root = quantacal::detail::parse_yaml(text, file);
   const detail::CaseReader reader(file, base_directory);
   try {
     return detail::read_case(root, reader, load_materials);

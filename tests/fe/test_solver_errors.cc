@@ -229,6 +229,22 @@ TEST(CaseFile, UnknownKeyMessageNamesTheKeyAndTheChoices) {
   }
 }
 
+// Broken YAML is reported where the parser stopped, in the cards' wording (one
+// reader for cards and case files).
+TEST(CaseFile, YamlSyntaxErrorIsLocated) {
+  try {
+    load_case_from_string(
+        "name: x\ngeometry: planar\nmesh: {generator: plate, size: [\"1 m\"\n", "t.yaml",
+        ".", false);
+    FAIL() << "no error";
+  } catch (const quantacal::InputError& e) {
+    EXPECT_EQ(e.file(), "t.yaml");
+    EXPECT_GE(e.line(), 3);
+    EXPECT_GT(e.column(), 0);
+    EXPECT_NE(e.expected().find("YAML syntax error"), std::string::npos) << e.what();
+  }
+}
+
 // A key given twice is an error at the second one (YAML alone would keep the first
 // and drop the second without a word).
 TEST(CaseFile, RepeatedKeyIsRejectedWithItsLocation) {
