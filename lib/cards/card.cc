@@ -11,9 +11,11 @@
 
 #include <yaml-cpp/yaml.h>
 
+#include <algorithm>
 #include <cmath>
 #include <filesystem>
 #include <fstream>
+#include <limits>
 #include <sstream>
 #include <stdexcept>
 
@@ -161,10 +163,18 @@ void read_measurements(CardReader& reader, const YAML::Node& list,
   }
 }
 
+// The valid range shared by the components of a composed card: from the
+// highest of their lower ends to the lowest of their upper ends.
+struct ComponentRange {
+  double lower = 0.0;
+  double upper = std::numeric_limits<double>::infinity();
+  std::string list; ///< "iron.yaml: 100 K to 800 K, ..." for messages
+};
+
 std::vector<ContributionPtr> read_composition(CardReader& reader, const YAML::Node& list,
                                               const std::string& path,
                                               const std::string& file, LoadChain& chain,
-                                              double& molar_mass) {
+                                              double& molar_mass, ComponentRange& range) {
   reader.expect_sequence(list, path);
   if (list.size() == 0)
     reader.fail(list, path, "", "expected at least one component");
@@ -204,6 +214,11 @@ std::vector<ContributionPtr> read_composition(CardReader& reader, const YAML::No
     const MaterialPtr component = load_file(component_file, chain);
     parts.push_back(make_scaled(component->data().model, x));
     molar_mass += x * component->molar_mass();
+    range.lower = std::max(range.lower, component->lower_temperature());
+    range.upper = std::min(range.upper, component->upper_temperature());
+    range.list += (range.list.empty() ? "" : ", ") + relative + ": " +
+                  format_double(component->lower_temperature()) + " K to " +
+                  format_double(component->upper_temperature()) + " K";
   }
   if (std::abs(sum - 1.0) > 1e-6)
     reader.fail(list, path, format_double(sum),
@@ -307,10 +322,20 @@ ModelTerms read_model_terms(CardReader& reader, const YAML::Node& root,
           dil, "dilation", "",
           "a composed card takes the dilation of its components; remove `dilation`");
     double composed_mass = 0.0;
+    ComponentRange shared;
     terms.contributions = read_composition(reader, nodes.composition, "composition", file,
-                                           chain, composed_mass);
+                                           chain, composed_mass, shared);
     if (!nodes.molar_mass.IsDefined())
       data.molar_mass = composed_mass;
+    // Neumann-Kopp adds the components' capacities, each valid only over its
+    // own card's range: the composed card cannot claim more.
+    if (data.lower_temperature < shared.lower || data.upper_temperature > shared.upper)
+      reader.fail(nodes.range, "valid_range",
+                  format_double(data.lower_temperature) + " K to " +
+                      format_double(data.upper_temperature) + " K",
+                  "expected a range inside the valid ranges of the composed cards, " +
+                      format_double(shared.lower) + " K to " +
+                      format_double(shared.upper) + " K (" + shared.list + ")");
   } else {
     CardBasics basics;
     basics.molar_mass = data.molar_mass;

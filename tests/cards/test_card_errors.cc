@@ -245,6 +245,27 @@ TEST_F(CompositionErrors, Cycle) {
   }
 }
 
+// Neumann-Kopp sums capacities that are each valid only over their own card's
+// range: a composed card claiming more is a located error (common practice).
+TEST_F(CompositionErrors, RangeBeyondAComponent) {
+  write(dir_ / "c.yaml", replace(kGood, "valid_range: {from: \"4 K\", to: \"300 K\"}",
+                                 "valid_range: {from: \"100 K\", to: \"300 K\"}"));
+  write(dir_ / "alloy.yaml", alloy("  - {card: a.yaml, mole_fraction: 0.5}\n"
+                                   "  - {card: c.yaml, mole_fraction: 0.5}\n"));
+  try {
+    load_card((dir_ / "alloy.yaml").string());
+    FAIL() << "a range beyond a component was accepted";
+  } catch (const CardError& e) {
+    EXPECT_EQ(e.field(), "valid_range");
+    EXPECT_EQ(e.line(), 4);
+    EXPECT_EQ(e.column(), 14);
+    EXPECT_EQ(e.value(), "4 K to 300 K");
+    EXPECT_EQ(e.expected(),
+              "expected a range inside the valid ranges of the composed cards, 100 K to "
+              "300 K (a.yaml: 4 K to 300 K, c.yaml: 100 K to 300 K)");
+  }
+}
+
 TEST_F(CompositionErrors, MissingComponentAndBadFraction) {
   write(dir_ / "alloy.yaml", alloy("  - {card: none.yaml, mole_fraction: 1}\n"));
   try {

@@ -136,8 +136,9 @@ TEST(MaterialInverse, RoundTripsTheTableOnEveryBasis) {
       EXPECT_NEAR(m->thermal(back, basis).energy, e,
                   1e-12 * std::abs(m->thermal(1300.0, basis).energy))
           << t;
-      if (t > 20.0)
+      if (t > 20.0) {
         EXPECT_NEAR(back, t, 1e-9 * t);
+      }
     }
 }
 
