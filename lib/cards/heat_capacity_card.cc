@@ -13,8 +13,16 @@
 namespace quantacal::detail {
 namespace {
 
-const std::vector<std::string> kKinds = {
-    "debye", "einstein", "electronic", "schottky", "transition", "tabulated", "shomate"};
+const std::vector<std::string> kKinds = {"debye",    "einstein",   "electronic",
+                                         "schottky", "transition", "tabulated",
+                                         "shomate",  "magnetic"};
+
+const std::vector<std::string> kOrderings = {"ferromagnetic", "antiferromagnetic"};
+
+// How SGTE data of an antiferromagnet translate into the card's positive values.
+const char* const kSgteAntiferromagnets =
+    " (an antiferromagnet's SGTE value is negative: divide it by the antiferromagnetic "
+    "factor, -1 for bcc, -3 for other structures)";
 
 double modes_of(CardReader& reader, const YAML::Node& node, const std::string& path) {
   const YAML::Node m = reader.optional(node, "modes");
@@ -175,6 +183,49 @@ ContributionPtr read_shomate(CardReader& reader, const YAML::Node& node,
   return make_shomate(coefficients, from, to, below);
 }
 
+// Magnetic ordering (Inden, Hillert and Jarl): the Curie or Neel temperature, the mean
+// moment, the structure factor and, as a label, the kind of `ordering`.
+ContributionPtr read_magnetic(CardReader& reader, const YAML::Node& node,
+                              const std::string& path) {
+  reader.check_keys(
+      node, path,
+      {"kind", "critical_temperature", "moment", "structure_factor", "ordering"});
+  const std::string tpath = join_path(path, "critical_temperature");
+  const YAML::Node tn = reader.require(node, path, "critical_temperature");
+  const double tc = reader.quantity(tn, tpath, dimension::temperature());
+  if (!(tc > 0.0))
+    reader.fail(tn, tpath, reader.text(tn, tpath),
+                std::string("expected a Curie or Neel temperature > 0 K") +
+                    kSgteAntiferromagnets);
+  reader.record_parameter(tn, tpath);
+  const std::string mpath = join_path(path, "moment");
+  const YAML::Node mn = reader.require(node, path, "moment");
+  const double moment = reader.number(mn, mpath);
+  if (!(moment > 0.0))
+    reader.fail(mn, mpath, reader.text(mn, mpath),
+                std::string("expected a magnetic moment > 0 Bohr magnetons per atom") +
+                    kSgteAntiferromagnets);
+  reader.record_parameter(mn, mpath);
+  const std::string ppath = join_path(path, "structure_factor");
+  const YAML::Node pn = reader.require(node, path, "structure_factor");
+  const double p = reader.number(pn, ppath);
+  if (!(p > 0.0 && p < 1.0))
+    reader.fail(pn, ppath, reader.text(pn, ppath),
+                "expected a structure factor between 0 and 1 (0.40 for bcc, 0.28 for "
+                "other structures)");
+  reader.record_parameter(pn, ppath);
+  const YAML::Node on = reader.optional(node, "ordering");
+  if (on.IsDefined()) {
+    const std::string opath = join_path(path, "ordering");
+    const std::string ordering = reader.text(on, opath);
+    if (ordering != kOrderings[0] && ordering != kOrderings[1])
+      reader.fail(on, opath, ordering,
+                  "unknown ordering" + did_you_mean(ordering, kOrderings) +
+                      "; expected one of: ferromagnetic, antiferromagnetic");
+  }
+  return make_magnetic(tc, moment, p);
+}
+
 ContributionPtr read_contribution(CardReader& reader, const YAML::Node& node,
                                   const std::string& path, const CardBasics& basics) {
   reader.expect_map(node, path);
@@ -209,6 +260,8 @@ ContributionPtr read_contribution(CardReader& reader, const YAML::Node& node,
     return read_tabulated(reader, node, path, basics);
   if (kind == "shomate")
     return read_shomate(reader, node, path, basics);
+  if (kind == "magnetic")
+    return read_magnetic(reader, node, path);
   std::string list;
   for (const auto& k : kKinds)
     list += (list.empty() ? "" : ", ") + k;

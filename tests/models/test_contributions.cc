@@ -74,6 +74,8 @@ std::vector<Case> all_cases() {
       {"shomate_energy",
        quantacal::make_shomate(aluminium_shomate, 298.0, 933.0,
                                energy_below(4540.0))}, // CODATA Al H298-H0
+      {"magnetic",
+       quantacal::make_magnetic(1043.0, 2.22, 0.40)}, // bcc Fe, Dinsdale 1991 (SGTE)
   };
 }
 
@@ -171,7 +173,8 @@ TEST(EveryContribution, ParametersRoundTrip) {
       {"schottky", {"gap", "degeneracy_ratio", "centres"}},
       {"transition", {"temperature", "latent_heat", "width"}},
       {"tabulated", {"scale"}},
-      {"shomate", {"A", "B", "C", "D", "E"}}};
+      {"shomate", {"A", "B", "C", "D", "E"}},
+      {"magnetic", {"critical_temperature", "moment", "structure_factor"}}};
   for (const Case& k : all_cases()) {
     const auto params = k.term->parameters();
     const auto& names = expected.at(k.term->kind());

@@ -120,6 +120,39 @@ TEST(TableOnHeatCapacityModel, CopperWithDilation) {
   EXPECT_LE(w.capacity, 1e-9); // tolerance of the table (contract)
 }
 
+// Iron-like lattice with the magnetic peak: theta_D = 470 K (Kittel), gamma = 4.98
+// mJ/mol/K^2 (Kittel, from memory), T_C = 1043 K, beta = 2.22, p = 0.40 (bcc iron,
+// Dinsdale, CALPHAD 15 (1991) 317). C jumps down at T_C: the node must sit there, both
+// sides must meet the tolerance up to one ulp from it, and at T_C itself table and
+// model both take the upper value.
+TEST(TableOnHeatCapacityModel, IronWithMagneticPeak) {
+  const HeatCapacityModel model("iron", {make_debye(470.0, 3.0), make_electronic(4.98e-3),
+                                         make_magnetic(1043.0, 2.22, 0.40)});
+  TableOptions o;
+  o.lower_temperature = 100.0;
+  o.upper_temperature = 1500.0;
+  const auto table = build_timed(model, o, "iron magnetic");
+  const auto nodes = table->node_temperatures();
+  EXPECT_TRUE(std::binary_search(nodes.begin(), nodes.end(), 1043.0));
+  const Worst w = sample(*table, model, 100000, 6);
+  std::printf("[ iron magnetic ] worst C error %.3g at %.6g K, U error %.3g\n",
+              w.capacity, w.at, w.energy);
+  EXPECT_LE(w.capacity, 1e-9); // tolerance of the table (contract)
+  EXPECT_LE(w.energy, 1e-9);
+  // dense sampling within 2 K of the peak, and the one-sided values next to it
+  double worst = 0.0;
+  for (int i = -20000; i <= 20000; ++i) {
+    const double t = 1043.0 + 1e-4 * i;
+    worst = std::max(worst,
+                     relative(table->evaluate(t).capacity, model.evaluate(t).capacity));
+  }
+  for (double t : {std::nextafter(1043.0, 0.0), 1043.0, std::nextafter(1043.0, 2000.0)})
+    worst = std::max(worst,
+                     relative(table->evaluate(t).capacity, model.evaluate(t).capacity));
+  std::printf("[ iron magnetic ] worst C error within 2 K of T_C: %.3g\n", worst);
+  EXPECT_LE(worst, 1e-9); // tolerance of the table (contract)
+}
+
 // Measured-style points joined by the model's monotone cubic: the knots are
 // breakpoints and become nodes (illustrative data).
 TEST(TableOnHeatCapacityModel, TabulatedKnotsAreNodes) {

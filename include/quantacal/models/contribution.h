@@ -26,7 +26,8 @@ namespace quantacal {
 struct Parameter {
   /// name within the contribution, the same as its card key: "theta_D", "theta_E",
   /// "modes", "gamma", "gap", "degeneracy_ratio", "centres", "temperature",
-  /// "latent_heat", "width", "A".."E" (shomate), "mole_fraction" (scaled)
+  /// "latent_heat", "width", "A".."E" (shomate), "mole_fraction" (scaled),
+  /// "critical_temperature", "moment", "structure_factor" (magnetic)
   std::string name;
   double value;     ///< SI value
   std::string unit; ///< SI unit of @p value, e.g. "K", "J/mol/K^2", "1"
@@ -117,6 +118,25 @@ ContributionPtr make_schottky(double gap, double degeneracy_ratio, double centre
  * @param width standard deviation w, K (> 0)
  */
 ContributionPtr make_transition(double temperature, double latent_heat, double width);
+
+/**
+ * Magnetic ordering: Inden's function as simplified by Hillert and Jarl (CALPHAD 2
+ * (1978) 227), the form of the SGTE unary database (Dinsdale, CALPHAD 15 (1991) 317).
+ * With tau = T/T*, K = R ln(beta + 1), q = 1/p - 1, a = (474/497) q and
+ * D = 518/1125 + (11692/15975) q:
+ * C = (K a/D)(2 tau^3 + 2 tau^9/3 + 2 tau^15/5) for tau < 1 and
+ * C = (K/D)(2 tau^-5 + 2 tau^-15/3 + 2 tau^-25/5) for tau >= 1, with U in closed form.
+ * C drops by the factor a at T* (a breakpoint; at T* itself the upper value, as a
+ * PropertyTable takes it); U and the entropy are continuous there, and the total
+ * entropy int_0^inf C/T dT is K. The same function serves antiferromagnets with the
+ * Neel temperature and a positive moment.
+ * @param critical_temperature Curie or Neel temperature T*, K (> 0)
+ * @param moment mean magnetic moment beta, Bohr magnetons per atom (> 0)
+ * @param structure_factor p, the fraction of the magnetic enthalpy absorbed above
+ *        T*: 0.40 for bcc, 0.28 for fcc, hcp and other structures; 0 < p < 1
+ */
+ContributionPtr make_magnetic(double critical_temperature, double moment,
+                              double structure_factor);
 
 /** How a tabulated or Shomate term gets its energy below its first temperature. */
 struct LowerExtension {
