@@ -293,7 +293,8 @@ TEST(Equilibrium, ExactAgreesWithTable) {
   const RunResult t = run_quantacal(table), e = run_quantacal(exact);
   ASSERT_EQ(t.exit_code, 0) << t.err;
   ASSERT_EQ(e.exit_code, 0) << e.err;
-  // The table's energies follow the model to about 1e-9 relative (DESIGN.md).
+  // The table's energies follow the model to about 1e-9 relative (the default
+  // table_tolerance, docs/cards.md).
   EXPECT_NEAR(final_temperature(t), final_temperature(e), 1e-7 * final_temperature(e));
 }
 

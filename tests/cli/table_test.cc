@@ -81,7 +81,8 @@ TEST(Table, DefaultsCoverTheValidRangeInOneKelvinSteps) {
 }
 
 TEST(Table, ExactAndTableAgree) {
-  // The table's design tolerance on c_p is 1e-9 relative (DESIGN.md); allow 1e-8.
+  // The table's design tolerance on c_p is 1e-9 relative (the default
+  // table_tolerance, docs/cards.md); allow 1e-8.
   const std::string card = debye_card_path();
   const std::vector<std::string> range = {"--from", "3", "--to", "295", "--step", "0.75"};
   std::vector<std::string> a = {"table", card}, b = {"table", card, "--exact"};
@@ -105,7 +106,8 @@ TEST(Table, ExactAndTableAgree) {
 }
 
 TEST(Table, BasesDifferByMolarMassAndDensity) {
-  // mass = mole / M and volume = mole rho / M (definitions, DESIGN.md "Physics").
+  // mass = mole / M and volume = mole rho / M (definitions of the bases,
+  // quantacal/material/material.h).
   const std::string card = debye_card_path();
   const MaterialPtr material = load_card(card);
   const double molar_mass = material->molar_mass();

@@ -139,7 +139,7 @@ struct OneTermRow {
 };
 
 TEST(SeriesValidation, AgreesWithTheOneTermFormAtFourierOne) {
-  // Incropera and DeWitt, Table 5.1 (values as in REFERENCE-DATA.md):
+  // Incropera and DeWitt, Fundamentals of Heat and Mass Transfer, Table 5.1:
   // theta_0 = C1 exp(-zeta1^2 Fo), surface theta_0 X(zeta1); at Fo = 1 the
   // neglected terms are below 1e-6, the 4-digit rounding below 4e-4 of theta.
   const OneTermRow rows[] = {

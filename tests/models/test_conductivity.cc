@@ -19,7 +19,7 @@ namespace {
 using quantacal_test::relative_difference;
 
 // OFHC copper, RRR 100: computed from the NIST cryogenic correlation (Marquardt, Le and
-// Radebaugh, 11th Int. Cryocooler Conf., 2000), as listed in REFERENCE-DATA.md.
+// Radebaugh, 11th Int. Cryocooler Conf., 2000; computed, coefficients from memory).
 const std::vector<double> ofhc_t{4.0, 20.0, 77.0, 300.0};
 const std::vector<double> ofhc_k{642.0, 2423.0, 547.0, 396.0};
 

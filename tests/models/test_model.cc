@@ -33,7 +33,7 @@ HeatCapacityModel copper(std::optional<Dilation> d = std::nullopt) {
 Dilation grueneisen_copper() {
   Dilation d;
   d.kind = Dilation::Kind::grueneisen;
-  d.grueneisen = 2.02; // computed, 3 alpha K V_m / C_p (REFERENCE-DATA, from CRC inputs)
+  d.grueneisen = 2.02;       // computed, 3 alpha K V_m / C_p (from CRC Handbook inputs)
   d.bulk_modulus = 137.8e9;  // Pa, CRC
   d.molar_volume = 7.112e-6; // m^3/mol, computed from CRC density and molar mass
   return d;

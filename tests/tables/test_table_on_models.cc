@@ -103,7 +103,8 @@ TEST(TableOnHeatCapacityModel, AluminiumWithMeltingPeak) {
 
 // Copper with a Nernst-Lindemann dilation term (energy by quadrature in the
 // model): A = (Cp - Cv)/(Cp^2 T) = 0.73/(24.44^2 298.15) mol/J, computed from
-// REFERENCE-DATA.md (Cp - Cv computed; Cp CRC, from memory).
+// CRC Handbook of Chemistry and Physics expansion, bulk modulus and molar volume
+// (Cp - Cv computed here; Cp CRC, from memory).
 TEST(TableOnHeatCapacityModel, CopperWithDilation) {
   Dilation dil;
   dil.kind = Dilation::Kind::nernst_lindemann;
