@@ -1,0 +1,93 @@
+// SPDX-License-Identifier: Apache-2.0
+// Bundled cards against assessed full-range data they were not fitted to: the
+// SGTE unary Gibbs energies of the elements (Dinsdale, CALPHAD 15 (1991) 317),
+// from which C_p = -T d2G/dT2 is computed here. Validation, not fit checks: the
+// aluminium card was built from its Debye temperature, Sommerfeld coefficient,
+// expansion and bulk modulus (docs/cards.md), never from these polynomials.
+#include "support.h"
+
+#include <quantacal/cards/card.h>
+
+#include <gtest/gtest.h>
+
+#include <cmath>
+#include <cstdio>
+
+namespace {
+
+using namespace quantacal;
+using quantacal::test::material_path;
+
+// C_p of G = a + b T + c T ln T + d T^2 + e T^3 + f/T: -c - 2 d T - 6 e T^2 - 2 f/T^2.
+struct GibbsPolynomial {
+  double c, d, e, f; // J/mol/K, J/mol/K^2, J/mol/K^3, J K/mol
+  double capacity(double t) const {
+    return -c - 2 * d * t - 6 * e * t * t - 2 * f / (t * t);
+  }
+  /// H(t) - H(t0) = integral of the capacity from t0 to t
+  double enthalpy_increment(double t0, double t) const {
+    return -c * (t - t0) - d * (t * t - t0 * t0) - 2 * e * (t * t * t - t0 * t0 * t0) +
+           2 * f * (1 / t - 1 / t0);
+  }
+};
+
+// Dinsdale (1991), GHSERAL, fcc aluminium, 298.15 K to 700 K and 700 K to 933.47 K.
+const GibbsPolynomial kAluminiumLow{-24.3671976, -1.884662e-3, -0.877664e-6, 74092.0};
+const GibbsPolynomial kAluminiumHigh{-38.5844296, 18.531982e-3, -5.764227e-6, 74092.0};
+
+double sgte_aluminium(double t) {
+  return t <= 700.0 ? kAluminiumLow.capacity(t) : kAluminiumHigh.capacity(t);
+}
+
+// The card's lattice model (Debye + Sommerfeld + dilation) has no anharmonic or
+// vacancy term: within 3 % (the project's c_p requirement) from 298 K to 650 K.
+TEST(AssessedData, AluminiumSpecificHeatTo650K) {
+  const MaterialPtr al = load_card(material_path("aluminium.yaml"));
+  for (double t : {298.15, 350.0, 400.0, 450.0, 500.0, 550.0, 600.0, 650.0}) {
+    const double model = al->thermal(t, Basis::mole).capacity;
+    const double reference = sgte_aluminium(t); // Dinsdale 1991, GHSERAL, computed
+    std::printf("  aluminium c_p(%6.1f K) card %7.3f  SGTE %7.3f J/mol/K  %+5.2f %%\n", t,
+                model, reference, 100 * (model / reference - 1));
+    EXPECT_NEAR(model / reference - 1, 0.0, 0.03) << t;
+  }
+}
+
+// H(T) - H(298.15 K), within 2 % (the project's enthalpy requirement).
+TEST(AssessedData, AluminiumEnthalpyIncrementTo650K) {
+  const MaterialPtr al = load_card(material_path("aluminium.yaml"));
+  for (double t : {400.0, 500.0, 650.0}) {
+    const double model =
+        al->thermal(t, Basis::mole).energy - al->thermal(298.15, Basis::mole).energy;
+    const double reference = kAluminiumLow.enthalpy_increment(298.15, t); // Dinsdale 1991
+    std::printf(
+        "  aluminium H(%5.1f K) - H(298.15 K) card %8.1f  SGTE %8.1f J/mol  %+5.2f %%\n",
+        t, model, reference, 100 * (model / reference - 1));
+    EXPECT_NEAR(model / reference - 1, 0.0, 0.02) << t;
+  }
+}
+
+// Above 650 K the missing anharmonic and vacancy terms show: the deviation grows
+// with T. This records the measured miss (docs/validation.md) so that a card
+// change that makes it worse, or fixes it, is seen: -3.9 % at 720 K, -5.8 % at
+// 790 K, -8.5 % at 860 K when written (measured here, 4 December 2026).
+TEST(AssessedData, AluminiumSpecificHeatAbove650KIsLowAsDocumented) {
+  const MaterialPtr al = load_card(material_path("aluminium.yaml"));
+  const double t = 860.0;
+  const double deviation = al->thermal(t, Basis::mole).capacity / sgte_aluminium(t) - 1;
+  std::printf("  aluminium c_p(860 K) %+5.2f %% against SGTE (Dinsdale 1991)\n",
+              100 * deviation);
+  EXPECT_LT(deviation, 0.0);   // still low: no high-temperature term yet
+  EXPECT_GT(deviation, -0.10); // within the documented 10 %
+}
+
+// The assessed function itself, against the CRC value at 298.15 K (24.200
+// J/mol/K, CRC Handbook of Chemistry and Physics, verified): a check that the
+// coefficients above were transcribed right, independent of the card.
+TEST(AssessedData, TranscribedPolynomialMatchesCrcAt298K) {
+  EXPECT_NEAR(sgte_aluminium(298.15) / 24.200 - 1, 0.0, 0.01);
+  // continuity of the two intervals at 700 K (the assessment joins them there)
+  EXPECT_NEAR(kAluminiumLow.capacity(700.0) / kAluminiumHigh.capacity(700.0) - 1, 0.0,
+              1e-4);
+}
+
+} // namespace
