@@ -219,7 +219,8 @@ TEST(BundledCards, CopperCryogenic) {
 
 TEST(BundledCards, CopperConductivity) {
   const MaterialPtr cu = load_card(material_path("copper.yaml"));
-  // The table passes through its points (numerical, 1e-12).
+  // FIT CHECK, not validation: the card's table holds these very points, and must
+  // pass through them (numerical, 1e-12).
   EXPECT_NEAR(relative(cu->conductivity(4.0).value, 642.0), 0.0,
               1e-12); // NIST OFHC RRR 100, Marquardt, Le and Radebaugh 2000, computed
   EXPECT_NEAR(relative(cu->conductivity(77.0).value, 547.0), 0.0,
