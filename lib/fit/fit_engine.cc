@@ -17,13 +17,8 @@
 #include <sstream>
 
 namespace quantacal::fit {
-namespace {
 
-using detail::ModelState;
-using VectorPtr = std::unique_ptr<gsl_vector, decltype(&gsl_vector_free)>;
-
-/** Model value for one row, in the row's unit. */
-double model_value(const ModelState& s, const DataPoint& p, double molar_mass) {
+double detail::model_value(const ModelState& s, const DataPoint& p, double molar_mass) {
   switch (p.kind) {
   case Observable::capacity: {
     const double c = s.model->evaluate(p.temperature).capacity;
@@ -40,6 +35,12 @@ double model_value(const ModelState& s, const DataPoint& p, double molar_mass) {
   }
   return 0.0;
 }
+
+namespace {
+
+using detail::model_value;
+using detail::ModelState;
+using VectorPtr = std::unique_ptr<gsl_vector, decltype(&gsl_vector_free)>;
 
 struct Problem {
   const Material* start = nullptr;
@@ -380,6 +381,7 @@ FitResult fit(const Material& start, const DataSet& data,
                          std::string("the fitted card is not valid: ") + e.what());
   }
   add_gamma_warnings(r, problem.points);
+  detail::add_diagnostics(r, data.has_sigma);
   return r;
 }
 

@@ -1,5 +1,6 @@
 // SPDX-License-Identifier: Apache-2.0
 // `quantacal fit`: what the fitted card changes in the start card, and the report.
+#include "fit_detail.h"
 #include <quantacal/fit/fit.h>
 
 #include <quantacal/common/format.h>
@@ -108,7 +109,8 @@ std::string report(const FitResult& result, const DataSet& data) {
     << (result.covariance_scaled ? "scaled by the reduced chi-square (no sigma column)"
                                  : "from the sigma column")
     << "\nrelative residuals: rms " << number(100 * result.rms_relative, 3) << " %, max "
-    << number(100 * result.max_relative, 3) << " %\n\n";
+    << number(100 * result.max_relative, 3) << " %\n"
+    << detail::diagnostics_report(result) << "\n";
   for (const std::string& w : result.warnings)
     o << "warning: " << w << "\n\n";
   o << "residuals\n";

@@ -81,7 +81,27 @@ CopperFit fit_copper(double t_low) {
   c.gamma_error = 1e3 * r.standard_errors[1];
   std::printf("from %g K: worst %.2f %%, theta_0 %.1f K, gamma %.4f +- %.4f mJ/mol/K^2\n",
               t_low, 100 * c.worst, c.theta0, c.gamma, c.gamma_error);
+  for (const fit::ObservableDiagnostics& o : r.diagnostics.observables)
+    std::printf("runs test: %zu runs in %zu rows, %.1f expected, z = %.2f, p = %.2g; "
+                "chi-square upper tail %.2g\n",
+                o.runs.runs, o.runs.n, o.runs.expected, o.runs.z, o.runs.p,
+                r.diagnostics.chi_square_p);
   return c;
+}
+
+/**
+ * Published copper c_p has a lattice shape no Debye plus Einstein term reproduces
+ * (docs/fitting.md, "How low the data must go for gamma"): the residual signs come
+ * in long runs, and with all lattice parameters free there is nothing left to free.
+ */
+void expect_lattice_shape_warning(const fit::FitResult& r) {
+  ASSERT_EQ(r.diagnostics.observables.size(), 1u);
+  EXPECT_TRUE(r.diagnostics.observables[0].runs.systematic);
+  EXPECT_TRUE(r.diagnostics.suggestions.empty());
+  const std::string& w = r.warnings.back();
+  EXPECT_NE(w.find("the residuals are systematic"), std::string::npos) << w;
+  EXPECT_NE(w.find("the model needs a term the card does not have"), std::string::npos)
+      << w;
 }
 } // namespace
 
@@ -99,10 +119,14 @@ TEST(FitCopper, FitsPublishedDataFrom10KTo300K) {
   // reference equation), so a few per cent of lattice-shape error in the Debye and
   // Einstein terms moves gamma by tens of per cent (measured: 0.49 against 0.691).
   // The fit must say so rather than hand back a gamma that looks well determined.
-  ASSERT_EQ(c.result.warnings.size(), 1u);
+  ASSERT_EQ(c.result.warnings.size(), 2u);
   EXPECT_NE(c.result.warnings[0].find("heat_capacity[2].gamma is poorly determined"),
             std::string::npos)
       << c.result.warnings[0];
+  // The lattice-shape error shows in the residuals too (measured: 9 runs of one sign
+  // in 41 rows where 20.5 are expected); every lattice parameter of the start card is
+  // already free.
+  expect_lattice_shape_warning(c.result);
 }
 
 TEST(FitCopper, FitsPublishedDataFrom2KTo300KAndRecoversGamma) {
@@ -114,5 +138,13 @@ TEST(FitCopper, FitsPublishedDataFrom2KTo300KAndRecoversGamma) {
   EXPECT_LT(std::abs(c.gamma - 0.691), 2.0 * c.gamma_error); // within 2 sigma of Martin
   EXPECT_NEAR(c.theta0 / 343.0, 1.0, 0.01);                  // Kittel
   EXPECT_NEAR(c.theta0 / 344.5, 1.0, 0.01);                  // Martin 1973
-  EXPECT_TRUE(c.result.warnings.empty()) << c.result.warnings.front();
+  // No gamma warning; but a Debye and an Einstein term still miss the dispersion of
+  // copper's phonons by up to 1.9 % in runs of one sign (measured: 6 runs in 41 rows
+  // where 21.4 are expected), so the fit says its standard errors do not measure
+  // the uncertainty.
+  ASSERT_EQ(c.result.warnings.size(), 1u);
+  EXPECT_EQ(c.result.warnings[0].find("heat_capacity[2].gamma is poorly determined"),
+            std::string::npos)
+      << c.result.warnings[0];
+  expect_lattice_shape_warning(c.result);
 }

@@ -124,6 +124,109 @@ struct ResidualRow {
   double weighted = 0.0; ///< weighted residual entering chi-square
 };
 
+/**
+ * Significance level of the runs test: a one-sided p below it marks the residual
+ * signs of an observable as systematic. 0.01 is a common choice of significance
+ * level (common practice); stricter than 0.05 so that one fit in a hundred, not
+ * one in twenty, warns on residuals that are in fact random.
+ */
+inline constexpr double runs_test_level = 0.01;
+
+/** Fewest rows (non-zero residuals) of an observable on which the runs test is run. */
+inline constexpr std::size_t runs_test_min_rows = 10;
+
+/**
+ * Fewest rows of an observable whose residuals, all of one sign, are systematic
+ * outright: after a least-squares fit of any parameter that moves these rows
+ * together, residuals of one sign alone are not a chance outcome.
+ */
+inline constexpr std::size_t one_sign_min_rows = 6;
+
+/**
+ * Level of the chi-square check (with a sigma column): an upper-tail probability
+ * of chi-square on its degrees of freedom below it says the residuals are larger
+ * than the sigmas allow. 0.001 (common practice for a goodness-of-fit check of a
+ * nonlinear fit, whose chi-square is only approximately chi-square distributed).
+ */
+inline constexpr double chi_square_level = 0.001;
+
+/** Most parameters a systematic-residual warning suggests freeing. */
+inline constexpr std::size_t max_suggested_parameters = 5;
+
+/**
+ * The Wald-Wolfowitz runs test (Wald and Wolfowitz 1940) on the signs of a
+ * sequence of residuals: too few runs of one sign says the residuals are
+ * systematic. With n+ and n- the counts of positive and negative residuals
+ * (zeros are left out), n = n+ + n-, the number of runs R has, for random signs,
+ * the expectation mu = 2 n+ n- / n + 1 and the variance
+ * sigma^2 = (mu - 1)(mu - 2)/(n - 1).
+ */
+struct RunsTest {
+  std::size_t n = 0;          ///< residuals with a sign (non-zero)
+  std::size_t n_positive = 0; ///< n+
+  std::size_t n_negative = 0; ///< n-
+  std::size_t runs = 0;       ///< R, the number of runs of one sign
+  double expected = 0.0;      ///< mu, runs expected for random signs
+  /// (R - mu)/sigma; NaN when only one sign is present (sigma = 0)
+  double z = 0.0;
+  /// One-sided P(R' <= R) for random signs: from the exact distribution of R
+  /// given n+ and n- (Swed and Eisenhart 1943) when both are at most 20, else the
+  /// normal approximation Phi(z) = erfc(-z/sqrt 2)/2; NaN when only one sign.
+  double p = 1.0;
+  bool exact = false;      ///< p is exact (else the normal approximation)
+  bool tested = false;     ///< enough rows: n >= runs_test_min_rows with both signs,
+                           ///< or one sign only and n >= one_sign_min_rows
+  bool one_sign = false;   ///< every residual has the same sign
+  bool systematic = false; ///< tested and (one_sign or p < runs_test_level)
+};
+
+/**
+ * The runs test on @p residuals in the order given (a fit orders each
+ * observable's rows by temperature); zeros are left out.
+ */
+RunsTest runs_test(const std::vector<double>& residuals);
+
+/** The runs test of one observable's rows (capacity, energy or conductivity). */
+struct ObservableDiagnostics {
+  Observable kind = Observable::capacity;
+  RunsTest runs; ///< on the residual signs, rows ordered by T (then T_from)
+};
+
+/** A parameter of the start card that a systematic-residual warning suggests freeing. */
+struct SuggestedParameter {
+  std::string path; ///< card path, as --free takes it
+  /// Largest |d ln(model) / d ln(parameter)| over the rows that showed the
+  /// systematic residuals, at the fitted values (dimensionless; 1 = a 1 % change
+  /// of the parameter moves some row by 1 %).
+  double sensitivity = 0.0;
+};
+
+/**
+ * Whether the residuals say the model cannot describe the data (docs/fitting.md,
+ * "Systematic residuals"): when flagged(), the standard errors and covariance,
+ * computed for a model assumed exact, do not measure the parameters' uncertainty.
+ */
+struct FitDiagnostics {
+  std::vector<ObservableDiagnostics> observables; ///< one per kind of row present
+  bool chi_square_tested = false;                 ///< the data have a sigma column
+  double chi_square_p = 1.0;       ///< upper-tail probability of chi-square on its dof
+  bool chi_square_flagged = false; ///< chi_square_tested and chi_square_p < level
+  /// Parameters of the start card not freed whose derivative on the flagged rows
+  /// is not negligible, most sensitive first (at most max_suggested_parameters);
+  /// empty when nothing is flagged.
+  std::vector<SuggestedParameter> suggestions;
+
+  /** Some observable's residuals are systematic. */
+  bool systematic() const {
+    for (const auto& o : observables)
+      if (o.runs.systematic)
+        return true;
+    return false;
+  }
+  /** The residuals are systematic or chi-square is too large for the sigmas. */
+  bool flagged() const { return systematic() || chi_square_flagged; }
+};
+
 /** The outcome of a fit. */
 struct FitResult {
   std::vector<FreeParameter> parameters;
@@ -144,9 +247,13 @@ struct FitResult {
   /// the freed paths and `covariance`), as the fitted card loads.
   MaterialPtr material;
   /// Cautions about how well the data determine a parameter (printed by the
-  /// report), e.g. a freed gamma whose electrons carry little of c_p at the
-  /// lowest row; empty when there is nothing to say.
+  /// report): a freed gamma whose electrons carry little of c_p at the lowest
+  /// row; systematic residuals or a chi-square too large for the sigma column
+  /// (see `diagnostics`); empty when there is nothing to say.
   std::vector<std::string> warnings;
+  /// Runs test per observable and chi-square check; when they flag, a warning
+  /// (in `warnings`) says so and suggests parameters to free.
+  FitDiagnostics diagnostics;
 };
 
 /**
@@ -162,7 +269,10 @@ inline constexpr double gamma_share_threshold = 0.40;
  * (gsl_multifit_nlinear, geodesic acceleration off, Moré scaling). Parameters
  * whose start value is > 0 are fitted in log space (they stay positive); the
  * covariance is mapped back to SI. Without a sigma column the covariance is
- * scaled by the reduced chi-square.
+ * scaled by the reduced chi-square. The residuals are then checked
+ * (FitResult::diagnostics: the runs test per observable, chi-square against the
+ * sigma column) and a warning added when they say the model cannot describe the
+ * data (docs/fitting.md, "Systematic residuals").
  * @throws InputError naming the data file for fewer rows than free parameters + 1,
  *         located at file:line for a row outside the card's valid range or the
  *         model's domain; InputError::argument (`--free <path>: ...`) for a
