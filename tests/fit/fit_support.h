@@ -22,7 +22,7 @@ namespace quantacal::test {
  * correlation log10(cp) = sum_i a_i (log10 T)^i (Marquardt, Le and Radebaugh,
  * Cryogenic Material Properties Database, 11th Int. Cryocooler Conf., 2000).
  * Coefficients from memory; the tests check that they reproduce the verified
- * values of REFERENCE-DATA.md at 4, 20, 77 and 300 K before using them.
+ * published values at 4, 20, 77 and 300 K before using them.
  */
 inline double nist_copper_specific_heat(double t) {
   static constexpr std::array<double, 9> a = {
@@ -57,8 +57,8 @@ inline double reference_equation_copper_heat_capacity(double t) {
 /**
  * Thermal conductivity of OFHC copper, W/m/K, 4 K to 300 K, same NIST source:
  * log10(k) = (a + c T^0.5 + e T + g T^1.5 + i T^2) / (1 + b T^0.5 + d T + f T^1.5 + h
- * T^2). Coefficients for RRR = 50 and RRR = 100 from memory; checked against the verified
- * values of REFERENCE-DATA.md before use.
+ * T^2). Coefficients for RRR = 50 and RRR = 100 from memory; checked against the
+ * published values before use.
  */
 inline double nist_copper_conductivity(double t, int rrr) {
   static constexpr std::array<double, 9> c50 = {1.8743,    -0.41538,  -0.6018,
@@ -81,8 +81,9 @@ inline constexpr double copper_molar_mass = 63.546e-3;
  * The copper conductivity inputs used by the tests and materials/copper.yaml:
  * theta_R = 343 K (Kittel's calorimetric theta_D, verified, used for theta_R as
  * is common practice), rho(293 K) = 1.68e-8 Ohm m (CRC Handbook, from memory),
- * phonon Lorenz number 2.23e-8 W Ohm/K^2 (Kittel, Lorenz numbers at 0 degC, from
- * memory).
+ * the Sommerfeld L0 for both scattering terms (the Wilson factor alone carries the
+ * inelastic phonon scattering; a measured total Lorenz ratio for the phonon term
+ * on top of it would count that scattering twice).
  */
 inline MetalConductivityParameters copper_conductivity_inputs(double rrr, double wilson) {
   MetalConductivityParameters p;
@@ -90,7 +91,6 @@ inline MetalConductivityParameters copper_conductivity_inputs(double rrr, double
   p.reference_resistivity = 1.68e-8;
   p.reference_temperature = 293.0;
   p.rrr = rrr;
-  p.phonon_lorenz_number = 2.23e-8;
   p.wilson_ratio = wilson;
   return p;
 }

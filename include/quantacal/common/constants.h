@@ -18,9 +18,18 @@ inline constexpr double stefan_boltzmann = 5.670374419e-8;
 /// Kelvin value of 0 degC, K (the definition of the Celsius scale, SI Brochure 2019).
 inline constexpr double celsius_offset = 273.15;
 
-/// Sommerfeld value of the Lorenz number L0 = (pi^2/3)(k/e)^2, W Ohm/K^2
-/// (2.443e-8 from CODATA k and e; the rounded 2.44e-8 is the value of the trade).
-inline constexpr double sommerfeld_lorenz_number = 2.44e-8;
+/// Boltzmann constant k_B, J/K (SI 2019 definition, exact).
+inline constexpr double boltzmann_constant = 1.380649e-23;
+
+/// Elementary charge e, C (SI 2019 definition, exact).
+inline constexpr double elementary_charge = 1.602176634e-19;
+
+/// Sommerfeld value of the Lorenz number L0 = (pi^2/3)(k_B/e)^2 =
+/// 2.44300e-8 W Ohm/K^2, from the exact k_B and e (Ashcroft and Mermin, Solid
+/// State Physics, ch. 2; the rounded 2.44e-8 of handbooks is 0.12 % low).
+inline constexpr double sommerfeld_lorenz_number =
+    3.14159265358979323846 * 3.14159265358979323846 / 3.0 *
+    (boltzmann_constant / elementary_charge) * (boltzmann_constant / elementary_charge);
 
 } // namespace quantacal
 
