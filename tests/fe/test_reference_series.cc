@@ -26,10 +26,9 @@ struct OneTermRow {
   double c1;
 };
 
-// Incropera and DeWitt, Fundamentals of Heat and Mass Transfer, Table 5.1, as
-// listed in REFERENCE-DATA.md ("computed values, which match the printed
-// Table 5.1 from memory"); printed to 4 decimals, so the tolerance is half a
-// unit in the last place.
+// Incropera and DeWitt, Fundamentals of Heat and Mass Transfer, Table 5.1 (values
+// computed from its eigen-equations, which match the printed table from memory); printed
+// to 4 decimals, so the tolerance is half a unit in the last place.
 const OneTermRow table_5_1[] = {
     {Geometry::plane_wall, 0.1, 0.3111, 1.0161},  // Incropera and DeWitt, Table 5.1
     {Geometry::plane_wall, 1.0, 0.8603, 1.1191},  // Incropera and DeWitt, Table 5.1

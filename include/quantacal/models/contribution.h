@@ -3,7 +3,7 @@
  * @file contribution.h
  * @brief One additive term of a heat-capacity model, and the concrete terms.
  *
- * A heat-capacity model is a sum of contributions (DESIGN.md, "Physics").
+ * A heat-capacity model is a sum of contributions (docs/theory.md).
  * Each contribution gives the molar capacity C(T), its derivative dC/dT and
  * its thermal energy U(T) = int_0^T C dT' (closed form or an accurate special
  * function), with stable branches at small and large x = theta/T.
