@@ -3,13 +3,21 @@
 // SGTE unary Gibbs energies of the elements (Dinsdale, CALPHAD 15 (1991) 317),
 // from which C_p = -T d2G/dT2 is computed here. Validation, not fit checks: the
 // aluminium card was built from its Debye temperature, Sommerfeld coefficient,
-// expansion and bulk modulus (docs/cards.md), never from these polynomials.
+// expansion and bulk modulus (docs/cards.md), never from these polynomials; the
+// iron card's excess term was fitted to the CRC c_p at 298.15 K only, and its
+// magnetic term takes the assessment's T_C, beta and p (so for iron these
+// checks validate the lattice, electronic, dilation and excess terms, and the
+// magnetic function's implementation, not the magnetic parameters).
 #include "support.h"
 
 #include <quantacal/cards/card.h>
+#include <quantacal/common/constants.h>
+
+#include <boost/math/quadrature/gauss_kronrod.hpp>
 
 #include <gtest/gtest.h>
 
+#include <algorithm>
 #include <cmath>
 #include <cstdio>
 
@@ -37,6 +45,63 @@ const GibbsPolynomial kAluminiumHigh{-38.5844296, 18.531982e-3, -5.764227e-6, 74
 
 double sgte_aluminium(double t) {
   return t <= 700.0 ? kAluminiumLow.capacity(t) : kAluminiumHigh.capacity(t);
+}
+
+// Dinsdale (1991), GHSERFE, bcc iron, 298.15 K to 1811 K, without its magnetic part.
+const GibbsPolynomial kIronLattice{-23.5143, -4.39752e-3, -5.8927e-8, 77359.0};
+
+// The magnetic capacity of the same assessment, C = -T d2G/dT2 of Dinsdale's
+// G_mag = R T ln(beta + 1) g(tau) (Hillert and Jarl 1978 form), written out here
+// on its own: T_C = 1043 K, beta = 2.22, p = 0.40 for bcc iron (Dinsdale 1991).
+double sgte_iron_magnetic(double t) {
+  const double k = quantacal::gas_constant * std::log(1 + 2.22);
+  const double q = 1 / 0.40 - 1;
+  const double d = 518.0 / 1125.0 + 11692.0 / 15975.0 * q;
+  const double tau = t / 1043.0;
+  if (tau < 1)
+    return k * (474.0 / 497.0) * q / d *
+           (2 * std::pow(tau, 3) + 2 * std::pow(tau, 9) / 3 + 2 * std::pow(tau, 15) / 5);
+  return k / d *
+         (2 * std::pow(tau, -5) + 2 * std::pow(tau, -15) / 3 +
+          2 * std::pow(tau, -25) / 5);
+}
+
+double sgte_iron(double t) {
+  return kIronLattice.capacity(t) + sgte_iron_magnetic(t);
+}
+
+// c_p within 3 % from 298 K to 1180 K (the project's requirement; the measured
+// worst is 2.2 % at 500 K). Points within 5 % of T_C (991-1095 K) are listed
+// apart: the same 3 % holds there (the peak itself is the same function).
+TEST(AssessedData, IronSpecificHeatAcrossTheCuriePoint) {
+  const MaterialPtr fe = load_card(material_path("iron.yaml"));
+  for (double t : {298.15, 400.0, 500.0, 600.0, 700.0, 800.0, 900.0, 1150.0, 1180.0,
+                   /* within 5 % of T_C: */ 1000.0, 1040.0, 1050.0, 1090.0}) {
+    const double model = fe->thermal(t, Basis::mole).capacity;
+    const double reference = sgte_iron(t); // Dinsdale 1991, GHSERFE + magnetic, computed
+    std::printf("  iron c_p(%6.1f K) card %7.3f  SGTE %7.3f J/mol/K  %+5.2f %%\n", t,
+                model, reference, 100 * (model / reference - 1));
+    EXPECT_NEAR(model / reference - 1, 0.0, 0.03) << t;
+  }
+}
+
+// H(T) - H(298.15 K) within 2 %, below and above T_C; the assessed enthalpy by
+// Boost.Math Gauss-Kronrod quadrature of its c_p, split at T_C.
+TEST(AssessedData, IronEnthalpyIncrementAcrossTheCuriePoint) {
+  const MaterialPtr fe = load_card(material_path("iron.yaml"));
+  using boost::math::quadrature::gauss_kronrod;
+  for (double t : {500.0, 800.0, 1000.0, 1150.0}) {
+    double reference = gauss_kronrod<double, 61>::integrate(
+        sgte_iron, 298.15, std::min(t, 1043.0), 15, 1e-12);
+    if (t > 1043.0)
+      reference += gauss_kronrod<double, 61>::integrate(sgte_iron, 1043.0, t, 15, 1e-12);
+    const double model =
+        fe->thermal(t, Basis::mole).energy - fe->thermal(298.15, Basis::mole).energy;
+    std::printf(
+        "  iron H(%6.1f K) - H(298.15 K) card %8.1f  SGTE %8.1f J/mol  %+5.2f %%\n", t,
+        model, reference, 100 * (model / reference - 1));
+    EXPECT_NEAR(model / reference - 1, 0.0, 0.02) << t;
+  }
 }
 
 // The card's lattice model (Debye + Sommerfeld + dilation) has no anharmonic or
