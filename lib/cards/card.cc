@@ -397,6 +397,34 @@ void check_model_over_range(CardReader& reader, const CardNodes& nodes,
                 "expected a temperature inside the domain of the heat-capacity terms");
 }
 
+// A latent heat of the card's own terms must lie inside its valid range: above
+// it the transition is never reached, below it its heat is already in every
+// energy the card gives (most often a temperature written in the wrong unit).
+void check_transitions_in_range(CardReader& reader, const CardNodes& nodes,
+                                const MaterialData& data) {
+  if (!nodes.heat_capacity.IsDefined())
+    return;
+  const auto& terms = data.model->contributions();
+  for (std::size_t i = 0; i < terms.size(); ++i) {
+    if (terms[i]->kind() != "transition")
+      continue;
+    double t = 0.0;
+    for (const Parameter& p : terms[i]->parameters())
+      if (p.name == "temperature")
+        t = p.value;
+    if (t >= data.lower_temperature && t <= data.upper_temperature)
+      continue;
+    const std::string path = join_path(index_path("heat_capacity", i), "temperature");
+    const YAML::Node node = nodes.heat_capacity[i]["temperature"];
+    reader.fail(node, path, reader.text(node, path),
+                "expected a transition inside the valid range (" +
+                    format_double(data.lower_temperature) + " K to " +
+                    format_double(data.upper_temperature) +
+                    " K): outside it the latent heat is never reached, or already "
+                    "spent below it");
+  }
+}
+
 MaterialPtr load_text(const std::string& text, const std::string& file,
                       LoadChain& chain) {
   const YAML::Node root = parse_yaml(text, file);
@@ -416,6 +444,7 @@ MaterialPtr load_text(const std::string& text, const std::string& file,
                                         "conductivity", cc);
   build_model(reader, nodes, terms, data);
   check_model_over_range(reader, nodes, data);
+  check_transitions_in_range(reader, nodes, data);
 
   read_sources(reader, reader.require(root, "", "sources"), "sources", data);
   const YAML::Node meas = reader.optional(root, "measurements");

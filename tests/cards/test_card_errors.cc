@@ -62,6 +62,30 @@ TEST(CardErrors, YamlSyntaxError) {
   EXPECT_NE(e.expected().find("YAML syntax error"), std::string::npos);
 }
 
+// A latent heat outside the valid range is never reached (above) or already in
+// every energy (below): most often a temperature in the wrong unit. Located at
+// the transition's temperature (common practice).
+TEST(CardErrors, TransitionOutsideTheValidRange) {
+  const std::string transition = "  - kind: transition\n"
+                                 "    temperature: \"%T\"\n"
+                                 "    latent_heat: \"13 kJ/mol\"\n"
+                                 "    width: \"0.1 K\"\n";
+  for (const std::string t : {"1357 K", "2 K"}) {
+    std::string block = transition;
+    block.replace(block.find("%T"), 2, t);
+    const CardError e = card_error(replace(kGood, "conductivity:\n  kind: table",
+                                           block + "conductivity:\n  kind: table"));
+    EXPECT_EQ(e.field(), "heat_capacity[2].temperature") << e.what();
+    EXPECT_EQ(e.line(), 12);
+    EXPECT_EQ(e.column(), 18);
+    EXPECT_EQ(e.value(), t);
+    EXPECT_EQ(
+        e.expected(),
+        "expected a transition inside the valid range (4 K to 300 K): outside it the "
+        "latent heat is never reached, or already spent below it");
+  }
+}
+
 TEST(CardErrors, UnknownKeyDidYouMean) {
   const CardError e = card_error(replace(kGood, "theta_D:", "theta_d:"));
   EXPECT_EQ(e.line(), 8);
