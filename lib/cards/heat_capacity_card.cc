@@ -46,14 +46,15 @@ double temperature_parameter(CardReader& reader, const YAML::Node& node,
   return t;
 }
 
+// A required bare number > 0; the error reads "expected <what> > 0<after>".
 double positive_number(CardReader& reader, const YAML::Node& node,
                        const std::string& path, const std::string& key,
-                       const std::string& what) {
+                       const std::string& what, const std::string& after = "") {
   const YAML::Node n = reader.require(node, path, key);
   const std::string p = join_path(path, key);
   const double v = reader.number(n, p);
   if (!(v > 0.0))
-    reader.fail(n, p, reader.text(n, p), "expected " + what + " > 0");
+    reader.fail(n, p, reader.text(n, p), "expected " + what + " > 0" + after);
   reader.record_parameter(n, p);
   return v;
 }
@@ -198,14 +199,9 @@ ContributionPtr read_magnetic(CardReader& reader, const YAML::Node& node,
                 std::string("expected a Curie or Neel temperature > 0 K") +
                     kSgteAntiferromagnets);
   reader.record_parameter(tn, tpath);
-  const std::string mpath = join_path(path, "moment");
-  const YAML::Node mn = reader.require(node, path, "moment");
-  const double moment = reader.number(mn, mpath);
-  if (!(moment > 0.0))
-    reader.fail(mn, mpath, reader.text(mn, mpath),
-                std::string("expected a magnetic moment > 0 Bohr magnetons per atom") +
-                    kSgteAntiferromagnets);
-  reader.record_parameter(mn, mpath);
+  const double moment =
+      positive_number(reader, node, path, "moment", "a magnetic moment",
+                      std::string(" Bohr magnetons per atom") + kSgteAntiferromagnets);
   const std::string ppath = join_path(path, "structure_factor");
   const YAML::Node pn = reader.require(node, path, "structure_factor");
   const double p = reader.number(pn, ppath);
