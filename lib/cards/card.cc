@@ -36,6 +36,7 @@ const std::vector<std::string> kTopKeys = {"name",
                                            "dilation",
                                            "conductivity",
                                            "composition",
+                                           "phases",
                                            "sources",
                                            "measurements",
                                            "fit"};
@@ -231,6 +232,7 @@ std::vector<ContributionPtr> read_composition(CardReader& reader, const YAML::No
 struct CardNodes {
   YAML::Node composition;
   YAML::Node heat_capacity;
+  YAML::Node phases;
   YAML::Node molar_mass;
   YAML::Node range;
   YAML::Node reference_temperature;
@@ -245,12 +247,18 @@ CardNodes read_card_basics(CardReader& reader, const YAML::Node& root,
 
   const YAML::Node composition = reader.optional(root, "composition");
   const YAML::Node heat_capacity = reader.optional(root, "heat_capacity");
-  if (composition.IsDefined() && heat_capacity.IsDefined())
-    reader.fail(composition, "composition", "",
-                "give either `heat_capacity` or `composition`, not both");
-  if (!composition.IsDefined() && !heat_capacity.IsDefined())
+  const YAML::Node phases = reader.optional(root, "phases");
+  const int models = int(composition.IsDefined()) + int(heat_capacity.IsDefined()) +
+                     int(phases.IsDefined());
+  if (models > 1) {
+    const YAML::Node second = phases.IsDefined() ? phases : composition;
+    reader.fail(second, phases.IsDefined() ? "phases" : "composition", "",
+                "give one of `heat_capacity`, `phases` or `composition`, not several");
+  }
+  if (models == 0)
     reader.fail(root, "heat_capacity", "",
-                "missing field (or `composition` for a card made of other cards)");
+                "missing field (or `phases` for a card with phase changes, or "
+                "`composition` for a card made of other cards)");
 
   const YAML::Node mm = reader.optional(root, "molar_mass");
   if (mm.IsDefined()) {
@@ -299,7 +307,7 @@ CardNodes read_card_basics(CardReader& reader, const YAML::Node& root,
                   "expected a relative tolerance between 1e-13 and 1e-2");
   }
   // (built at the end: assigning to a YAML::Node would assign the node's content)
-  return CardNodes{composition, heat_capacity, mm, range, tref};
+  return CardNodes{composition, heat_capacity, phases, mm, range, tref};
 }
 
 // The terms of the heat-capacity model.
@@ -336,6 +344,22 @@ ModelTerms read_model_terms(CardReader& reader, const YAML::Node& root,
                   "expected a range inside the valid ranges of the composed cards, " +
                       format_double(shared.lower) + " K to " +
                       format_double(shared.upper) + " K (" + shared.list + ")");
+  } else if (nodes.phases.IsDefined()) {
+    if (dil.IsDefined())
+      reader.fail(dil, "dilation", "",
+                  "a card with phases gives a `dilation` in each phase that has one");
+    CardBasics basics;
+    basics.molar_mass = data.molar_mass;
+    ConductivityContext range;
+    range.lower_temperature = data.lower_temperature;
+    range.upper_temperature = data.upper_temperature;
+    ReadPhases phases =
+        read_phases(reader, nodes.phases, "phases", basics, data.name, range,
+                    data.reference_density, root["conductivity"].IsDefined());
+    terms.contributions = {phases.heat_capacity};
+    data.conductivity = phases.conductivity;
+    data.phases = std::move(phases.info);
+    data.phase_layout = std::move(phases.layout);
   } else {
     CardBasics basics;
     basics.molar_mass = data.molar_mass;
@@ -356,8 +380,14 @@ void build_model(CardReader& reader, const CardNodes& nodes, const ModelTerms& t
                                                            terms.dilation);
   } catch (const std::invalid_argument& e) {
     const bool composed = nodes.composition.IsDefined();
-    reader.fail(composed ? nodes.composition : nodes.heat_capacity,
-                composed ? "composition" : "heat_capacity", "", e.what());
+    const bool phased = nodes.phases.IsDefined();
+    reader.fail(composed ? nodes.composition
+                : phased ? nodes.phases
+                         : nodes.heat_capacity,
+                composed ? "composition"
+                : phased ? "phases"
+                         : "heat_capacity",
+                "", e.what());
   }
 }
 
@@ -440,8 +470,9 @@ MaterialPtr load_text(const std::string& text, const std::string& file,
   ConductivityContext cc;
   cc.lower_temperature = data.lower_temperature;
   cc.upper_temperature = data.upper_temperature;
-  data.conductivity = read_conductivity(reader, reader.require(root, "", "conductivity"),
-                                        "conductivity", cc);
+  if (!data.conductivity) // (a card with phases may give one per phase)
+    data.conductivity = read_conductivity(
+        reader, reader.require(root, "", "conductivity"), "conductivity", cc);
   build_model(reader, nodes, terms, data);
   check_model_over_range(reader, nodes, data);
   check_transitions_in_range(reader, nodes, data);

@@ -9,9 +9,11 @@
 
 #include <quantacal/cards/units.h>
 #include <quantacal/common/exceptions.h>
+#include <quantacal/material/material.h>
 #include <quantacal/models/conductivity.h>
 #include <quantacal/models/contribution.h>
 #include <quantacal/models/heat_capacity_model.h>
+#include <quantacal/models/phases.h>
 
 #include <yaml-cpp/yaml.h>
 
@@ -147,6 +149,28 @@ struct ConductivityContext {
 ConductivityPtr read_conductivity(CardReader& reader, const YAML::Node& node,
                                   const std::string& path,
                                   const ConductivityContext& context);
+
+/** What the `phases` list of a card gives (phase_card.cc). */
+struct ReadPhases {
+  ContributionPtr heat_capacity; ///< the phase sequence as one term
+  ConductivityPtr conductivity;  ///< null if the phases give none (card-level then)
+  std::vector<PhaseInfo> info;   ///< name, liquid, density per phase
+  std::shared_ptr<const PhaseLayout> layout;
+};
+
+/**
+ * Reads the `phases` list: each phase {name, liquid, from {temperature,
+ * latent_heat, width}, heat_capacity, dilation, conductivity, density}.
+ * @param reference_density the card's, the first phase's density unless it states
+ *        one (a later phase without one keeps the one before)
+ * @param top_conductivity whether the card has a card-level `conductivity`
+ *        (then no phase may have one; otherwise the first must, and a later phase
+ *        without one keeps the one before)
+ */
+ReadPhases read_phases(CardReader& reader, const YAML::Node& list,
+                       const std::string& path, const CardBasics& basics,
+                       const std::string& material_name, const ConductivityContext& range,
+                       double reference_density, bool top_conductivity);
 
 } // namespace quantacal::detail
 

@@ -3,6 +3,7 @@
 #include "card_reader.h"
 
 #include <quantacal/common/text.h>
+#include <quantacal/models/phases.h>
 
 #include "units_detail.h"
 
@@ -15,7 +16,7 @@ namespace {
 
 const std::vector<std::string> kKinds = {"debye",    "einstein",   "electronic",
                                          "schottky", "transition", "tabulated",
-                                         "shomate",  "magnetic"};
+                                         "shomate",  "magnetic",   "gibbs_series"};
 
 const std::vector<std::string> kOrderings = {"ferromagnetic", "antiferromagnetic"};
 
@@ -116,6 +117,52 @@ ContributionPtr read_electronic(CardReader& reader, const YAML::Node& node,
 
 // A latent heat smeared over `width` around `temperature` (molar or specific latent
 // heat).
+// `kind: gibbs_series`: pieces of the Gibbs-energy series of assessed element data,
+// each {from (first piece only), to, c, d, e, f, g, h}, coefficients in J/mol with
+// T in K (phases.h).
+ContributionPtr read_gibbs_series(CardReader& reader, const YAML::Node& node,
+                                  const std::string& path) {
+  reader.check_keys(node, path, {"kind", "pieces"});
+  const std::string ppath = join_path(path, "pieces");
+  const YAML::Node list = reader.require(node, path, "pieces");
+  reader.expect_sequence(list, ppath);
+  if (list.size() == 0)
+    reader.fail(list, ppath, "", "expected at least one piece");
+  std::vector<GibbsPiece> pieces;
+  for (std::size_t k = 0; k < list.size(); ++k) {
+    const std::string ip = index_path(ppath, k);
+    const YAML::Node item = list[k];
+    reader.check_keys(item, ip, {"from", "to", "c", "d", "e", "f", "g", "h"});
+    GibbsPiece p;
+    if (k == 0) {
+      p.from = temperature_parameter(reader, item, ip, "from");
+    } else {
+      if (item["from"].IsDefined())
+        reader.fail(item["from"], join_path(ip, "from"), "",
+                    "a later piece starts where the one before ends; remove `from`");
+      p.from = pieces.back().to;
+    }
+    const YAML::Node to = reader.require(item, ip, "to");
+    p.to = temperature_parameter(reader, item, ip, "to");
+    if (!(p.to > p.from))
+      reader.fail(to, join_path(ip, "to"), reader.text(to, join_path(ip, "to")),
+                  "expected the end of the piece above its start (" +
+                      format_double(p.from) + " K)");
+    double* coefficient[] = {&p.c, &p.d, &p.e, &p.f, &p.g, &p.h};
+    const char* names[] = {"c", "d", "e", "f", "g", "h"};
+    for (int i = 0; i < 6; ++i) {
+      const YAML::Node n = reader.optional(item, names[i]);
+      if (!n.IsDefined())
+        continue;
+      const std::string cp = join_path(ip, names[i]);
+      *coefficient[i] = reader.number(n, cp);
+      reader.record_parameter(n, cp);
+    }
+    pieces.push_back(p);
+  }
+  return make_gibbs_series(std::move(pieces));
+}
+
 ContributionPtr read_transition(CardReader& reader, const YAML::Node& node,
                                 const std::string& path, const CardBasics& basics) {
   reader.check_keys(node, path, {"kind", "temperature", "latent_heat", "width"});
@@ -258,6 +305,8 @@ ContributionPtr read_contribution(CardReader& reader, const YAML::Node& node,
     return read_shomate(reader, node, path, basics);
   if (kind == "magnetic")
     return read_magnetic(reader, node, path);
+  if (kind == "gibbs_series")
+    return read_gibbs_series(reader, node, path);
   std::string list;
   for (const auto& k : kKinds)
     list += (list.empty() ? "" : ", ") + k;

@@ -167,6 +167,25 @@ std::vector<TransitionPassage> passages_of(const Body& body, double final_temper
     if (t.ends_inside || t.crossed)
       out.push_back(t);
   }
+  // Phase changes of a card with phases: the transformed share is the weight of
+  // the phase above the boundary.
+  const auto& layout = body.material->data().phase_layout;
+  if (!layout)
+    return out;
+  const PhaseLayout::Weight w = layout->weight(final_temperature);
+  const auto& boundaries = layout->boundaries();
+  for (std::size_t i = 0; i < boundaries.size(); ++i) {
+    if (!(boundaries[i].latent_heat > 0.0))
+      continue;
+    TransitionPassage t;
+    t.temperature = boundaries[i].temperature;
+    t.latent_heat = boundaries[i].latent_heat / body.material->molar_mass();
+    t.fraction = w.phase > i ? 1.0 : w.phase == i ? w.s : 0.0;
+    t.ends_inside = t.fraction > 1e-3 && t.fraction < 1.0 - 1e-3;
+    t.crossed = lo < t.temperature && t.temperature < hi;
+    if (t.ends_inside || t.crossed)
+      out.push_back(t);
+  }
   return out;
 }
 

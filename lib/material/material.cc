@@ -45,6 +45,14 @@ Material::Material(MaterialData data) : data_(std::move(data)) {
       std::isfinite(data_.reference_temperature) && data_.reference_temperature >= 0.0, n,
       "requires reference_temperature >= 0 K but got " +
           format_double(data_.reference_temperature));
+  require(data_.phases.empty() ||
+              (data_.phase_layout &&
+               data_.phase_layout->phase_count() == data_.phases.size()),
+          n, "requires one phase description per phase of the layout");
+  for (const PhaseInfo& p : data_.phases)
+    require(std::isfinite(p.density) && p.density > 0.0, n,
+            "requires a density > 0 kg/m^3 for phase " + p.name + " but got " +
+                format_double(p.density));
   if (data_.reference_temperature > 0.0)
     energy_offset_ = data_.model->evaluate(data_.reference_temperature).energy;
   data_.table_options.lower_temperature = data_.lower_temperature;
@@ -154,6 +162,17 @@ void Material::conductivity(const double* temperatures, std::size_t n,
 ConductivityValue Material::conductivity(double temperature) const {
   check_temperature(temperature, "quantacal::Material::conductivity");
   return data_.conductivity->evaluate(temperature);
+}
+
+double Material::density(double temperature) const {
+  check_temperature(temperature, "quantacal::Material::density");
+  if (data_.phases.empty() || !data_.phase_layout)
+    return data_.reference_density;
+  const PhaseLayout::Weight w = data_.phase_layout->weight(temperature);
+  const double a = data_.phases[w.phase].density;
+  if (w.s == 0.0)
+    return a;
+  return a + w.s * (data_.phases[w.phase + 1].density - a);
 }
 
 } // namespace quantacal

@@ -9,6 +9,7 @@
 #include <quantacal/material/fit_record.h>
 #include <quantacal/models/conductivity.h>
 #include <quantacal/models/heat_capacity_model.h>
+#include <quantacal/models/phases.h>
 #include <quantacal/tables/property_table.h>
 
 #include <cstddef>
@@ -45,6 +46,13 @@ struct Measurement {
   int line = 0;             ///< line in the card, for messages
 };
 
+/** One phase of a card with a `phases` list (docs/cards.md, "Phases"). */
+struct PhaseInfo {
+  std::string name;     ///< as written in the card, e.g. "alpha (bcc)"
+  bool liquid = false;  ///< the melt
+  double density = 0.0; ///< kg/m^3 (> 0)
+};
+
 /** Everything a Material is made of; filled by the card loader or by hand. */
 struct MaterialData {
   std::string name;
@@ -61,6 +69,9 @@ struct MaterialData {
   std::vector<Measurement> measurements;
   /// The `fit` record of a fitted card (covariance of its fitted parameters), if any.
   std::optional<FitRecord> fit;
+  /// Phases in order of temperature and their joins; empty for a one-phase card.
+  std::vector<PhaseInfo> phases;
+  std::shared_ptr<const PhaseLayout> phase_layout;
   TableOptions table_options; ///< tolerance etc.; range is the valid range
 };
 
@@ -145,6 +156,16 @@ public:
    */
   void conductivity(const double* temperatures, std::size_t n, double* conductivity,
                     double* derivative) const;
+
+  /**
+   * Density at @p temperature, kg/m^3: the phases' densities blended over each
+   * join with the same weights as the energy, or the reference density for a
+   * one-phase card. The volume basis keeps the reference density: a fixed mesh
+   * conserves mass, so energy per reference volume is what it integrates
+   * (docs/theory.md, "Phases").
+   * @throws RangeError outside the valid range
+   */
+  double density(double temperature) const;
 
   /** Energy offset subtracted so that U(reference temperature) = 0, J/mol. */
   double energy_offset() const noexcept { return energy_offset_; }
