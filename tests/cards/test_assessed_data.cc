@@ -1,13 +1,12 @@
 // SPDX-License-Identifier: Apache-2.0
-// Bundled cards against assessed full-range data they were not fitted to: the
-// SGTE unary Gibbs energies of the elements (Dinsdale, CALPHAD 15 (1991) 317),
-// from which C_p = -T d2G/dT2 is computed here. Validation, not fit checks: the
-// aluminium card was built from its Debye temperature, Sommerfeld coefficient,
-// expansion and bulk modulus (docs/cards.md), never from these polynomials; the
-// iron card's excess term was fitted to the CRC c_p at 298.15 K only, and its
-// magnetic term takes the assessment's T_C, beta and p (so for iron these
-// checks validate the lattice, electronic, dilation and excess terms, and the
-// magnetic function's implementation, not the magnetic parameters).
+// Bundled cards against the SGTE unary Gibbs energies of the elements (Dinsdale,
+// CALPHAD 15 (1991) 317), from which C_p = -T d2G/dT2 is computed here.
+//  - Validation for the cards not built on them (titanium, copper, silver,
+//    silicon: lattice, electronic, dilation and excess terms).
+//  - Fit checks for aluminium and iron, whose cards carry these very series
+//    above a join near 340 K (materials/*.yaml): they check the transcription
+//    of the coefficients and the join, not the physics. Their validation
+//    against an independent assessment (NIST-JANAF) is in test_phase_cards.cc.
 #include "support.h"
 
 #include <quantacal/cards/card.h>
@@ -71,24 +70,25 @@ double sgte_iron(double t) {
   return kIronLattice.capacity(t) + sgte_iron_magnetic(t);
 }
 
-// c_p within 3 % from 298 K to 1180 K (the project's requirement; the measured
-// worst is 2.2 % at 500 K). Points within 5 % of T_C (991-1095 K) are listed
-// apart: the same 3 % holds there (the peak itself is the same function).
-TEST(AssessedData, IronSpecificHeatAcrossTheCuriePoint) {
+// Fit check: c_p within 3 % at 298.15 K (the lattice model below the join) and to
+// rounding (0.01 %) from 400 K to 1175 K (the alpha-gamma join starts at 1179.8 K),
+// where the card carries GHSERFE and the
+// same magnetic function; points within 5 % of T_C (991-1095 K) are listed apart.
+TEST(AssessedData, IronSpecificHeatAcrossTheCuriePointFitCheck) {
   const MaterialPtr fe = load_card(material_path("iron.yaml"));
-  for (double t : {298.15, 400.0, 500.0, 600.0, 700.0, 800.0, 900.0, 1150.0, 1180.0,
+  for (double t : {298.15, 400.0, 500.0, 600.0, 700.0, 800.0, 900.0, 1150.0, 1175.0,
                    /* within 5 % of T_C: */ 1000.0, 1040.0, 1050.0, 1090.0}) {
     const double model = fe->thermal(t, Basis::mole).capacity;
     const double reference = sgte_iron(t); // Dinsdale 1991, GHSERFE + magnetic, computed
     std::printf("  iron c_p(%6.1f K) card %7.3f  SGTE %7.3f J/mol/K  %+5.2f %%\n", t,
                 model, reference, 100 * (model / reference - 1));
-    EXPECT_NEAR(model / reference - 1, 0.0, 0.03) << t;
+    EXPECT_NEAR(model / reference - 1, 0.0, t < 370.0 ? 0.03 : 1e-4) << t;
   }
 }
 
-// H(T) - H(298.15 K) within 2 %, below and above T_C; the assessed enthalpy by
+// Fit check: H(T) - H(298.15 K) within 2 %, below and above T_C; the assessed enthalpy by
 // Boost.Math Gauss-Kronrod quadrature of its c_p, split at T_C.
-TEST(AssessedData, IronEnthalpyIncrementAcrossTheCuriePoint) {
+TEST(AssessedData, IronEnthalpyIncrementAcrossTheCuriePointFitCheck) {
   const MaterialPtr fe = load_card(material_path("iron.yaml"));
   using boost::math::quadrature::gauss_kronrod;
   for (double t : {500.0, 800.0, 1000.0, 1150.0}) {
@@ -105,21 +105,24 @@ TEST(AssessedData, IronEnthalpyIncrementAcrossTheCuriePoint) {
   }
 }
 
-// The card's lattice model (Debye + Sommerfeld + dilation) has no anharmonic or
-// vacancy term: within 3 % (the project's c_p requirement) from 298 K to 650 K.
-TEST(AssessedData, AluminiumSpecificHeatTo650K) {
+// Fit check: below the join (310-370 K) the card is its lattice model (Debye +
+// Sommerfeld + dilation, within 3 %, the project's c_p requirement); from 370 K it
+// is GHSERAL itself, so it must agree to rounding of the table (0.01 %).
+TEST(AssessedData, AluminiumSpecificHeatFitCheckAgainstTheSeriesItCarries) {
   const MaterialPtr al = load_card(material_path("aluminium.yaml"));
-  for (double t : {298.15, 350.0, 400.0, 450.0, 500.0, 550.0, 600.0, 650.0}) {
+  for (double t :
+       {298.15, 350.0, 400.0, 500.0, 600.0, 650.0, 720.0, 790.0, 860.0, 925.0}) {
     const double model = al->thermal(t, Basis::mole).capacity;
     const double reference = sgte_aluminium(t); // Dinsdale 1991, GHSERAL, computed
     std::printf("  aluminium c_p(%6.1f K) card %7.3f  SGTE %7.3f J/mol/K  %+5.2f %%\n", t,
                 model, reference, 100 * (model / reference - 1));
-    EXPECT_NEAR(model / reference - 1, 0.0, 0.03) << t;
+    EXPECT_NEAR(model / reference - 1, 0.0, t < 370.0 ? 0.03 : 1e-4) << t;
   }
 }
 
-// H(T) - H(298.15 K), within 2 % (the project's enthalpy requirement).
-TEST(AssessedData, AluminiumEnthalpyIncrementTo650K) {
+// Fit check: H(T) - H(298.15 K) within 2 % (the project's enthalpy requirement);
+// the energy below the join is the lattice model's.
+TEST(AssessedData, AluminiumEnthalpyIncrementFitCheck) {
   const MaterialPtr al = load_card(material_path("aluminium.yaml"));
   for (double t : {400.0, 500.0, 650.0}) {
     const double model =
@@ -130,20 +133,6 @@ TEST(AssessedData, AluminiumEnthalpyIncrementTo650K) {
         t, model, reference, 100 * (model / reference - 1));
     EXPECT_NEAR(model / reference - 1, 0.0, 0.02) << t;
   }
-}
-
-// Above 650 K the missing anharmonic and vacancy terms show: the deviation grows
-// with T. This records the measured miss (docs/validation.md) so that a card
-// change that makes it worse, or fixes it, is seen: -3.9 % at 720 K, -5.8 % at
-// 790 K, -8.5 % at 860 K when written (measured here, 4 December 2026).
-TEST(AssessedData, AluminiumSpecificHeatAbove650KIsLowAsDocumented) {
-  const MaterialPtr al = load_card(material_path("aluminium.yaml"));
-  const double t = 860.0;
-  const double deviation = al->thermal(t, Basis::mole).capacity / sgte_aluminium(t) - 1;
-  std::printf("  aluminium c_p(860 K) %+5.2f %% against SGTE (Dinsdale 1991)\n",
-              100 * deviation);
-  EXPECT_LT(deviation, 0.0);   // still low: no high-temperature term yet
-  EXPECT_GT(deviation, -0.10); // within the documented 10 %
 }
 
 // Dinsdale (1991), GHSERTI, hcp (alpha) titanium, 298.15 K to 900 K.
