@@ -157,6 +157,13 @@ std::string summary_yaml(const CaseDescription& description, const RunResult& re
         << "\n  boundary_heat_J: " << number(e.boundary_heat)
         << "\n  source_heat_J: " << number(e.source_heat) << '\n';
   }
+  out << "warnings:";
+  if (result.warnings.empty())
+    out << " []\n";
+  else
+    out << '\n';
+  for (const std::string& w : result.warnings)
+    out << "  - " << quoted(w) << '\n';
   out << "final_temperature_K:\n  minimum: " << number(result.minimum_temperature)
       << "\n  maximum: " << number(result.maximum_temperature) << '\n';
   out << "probes:\n";

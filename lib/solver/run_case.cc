@@ -25,6 +25,7 @@
 #include "run_log.h"
 #include "step_control.h"
 #include "time_stepper.h"
+#include "transformation_watch.h"
 #include "wall_clock.h"
 
 #include <quantacal/common/exceptions.h>
@@ -77,6 +78,7 @@ private:
   std::unique_ptr<TimeStepper<dim>> stepper_;
   std::unique_ptr<ProbeSet<dim>> probes_;
   std::unique_ptr<FieldWriter<dim>> fields_;
+  std::unique_ptr<TransformationWatch<dim>> transformations_;
   StepControl control_;
   EnergyLedger ledger_;
   Vector ghosted_temperature_;
@@ -132,6 +134,8 @@ void CaseRun<dim>::set_up() {
   probes_ = std::make_unique<ProbeSet<dim>>(description_, discretization_);
   fields_ = std::make_unique<FieldWriter<dim>>(description_, discretization_, field_,
                                                writing_ && description_.output.fields);
+  transformations_ =
+      std::make_unique<TransformationWatch<dim>>(discretization_, materials.materials);
   result_.n_cells = discretization_.triangulation.n_global_active_cells();
   result_.n_dofs = discretization_.dof_handler.n_dofs();
   for (const Probe& probe : description_.output.probes)
@@ -235,6 +239,8 @@ template <int dim>
 void CaseRun<dim>::accept(const StepPlan& plan, const StepHeat& heat, double error,
                           double& time) {
   ledger_.add_step(heat);
+  transformations_->step(stepper_->temperature(), stepper_->attempted_temperature(),
+                         plan.step, plan.end_time);
   stepper_->accept();
   control_.accept(plan, error);
   time = plan.end_time;
@@ -286,6 +292,7 @@ void CaseRun<dim>::finish(double time) {
   result_.minimum_temperature = Utilities::MPI::min(t_min, discretization_.communicator);
   result_.maximum_temperature = Utilities::MPI::max(t_max, discretization_.communicator);
   result_.crossings = find_crossings(result_, description_.output.crossing_temperatures);
+  result_.warnings = transformations_->warnings();
   fields_->write(ghosted_temperature_, time, result_);
   result_.timings.total = seconds_since(start_);
   write_tables(true);

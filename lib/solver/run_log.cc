@@ -89,6 +89,8 @@ void RunLog::closing(const CaseDescription& description, const RunResult& result
        << std::setprecision(2) << result.worst_relative_imbalance << ", " << std::fixed
        << result.timings.total << " s wall";
   line(text.str());
+  for (const std::string& w : result.warnings)
+    line("warning: " + w);
   if (writing)
     line("results in " + description.output.folder +
          " (probes.csv, energy.csv, summary.yaml, cooling_curves.svg, fields.pvd)");

@@ -45,6 +45,8 @@ public:
   /** Makes the attempted step the current level. */
   void accept();
 
+  /** The temperature at the end of the last attempted step (owned entries). */
+  const Vector& attempted_temperature() const { return end_; }
   /** The temperature at the current level (owned entries). */
   const Vector& temperature() const { return current_; }
   /** The sums assembled at the current level. */

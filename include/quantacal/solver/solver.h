@@ -96,10 +96,13 @@ struct RunResult {
   unsigned long long n_cells = 0;
   unsigned long long n_dofs = 0;
   unsigned int n_ranks = 1;
-  double minimum_temperature = 0.0;       ///< K, over the nodes at the end
-  double maximum_temperature = 0.0;       ///< K, over the nodes at the end
-  bool completed = false;                 ///< reached the end time
-  std::string stop_reason;                ///< why it stopped early ("" if completed)
+  double minimum_temperature = 0.0; ///< K, over the nodes at the end
+  double maximum_temperature = 0.0; ///< K, over the nodes at the end
+  bool completed = false;           ///< reached the end time
+  std::string stop_reason;          ///< why it stopped early ("" if completed)
+  /// cautions about the results, e.g. an equilibrium transformation crossed
+  /// faster than 1 K/s (printed in the log and written to summary.yaml)
+  std::vector<std::string> warnings;
   std::vector<std::string> written_files; ///< paths written (rank 0's list)
   /// the gnuplot script cooling_curves.gp if one was written (rank 0), else ""; it
   /// plots probes.csv into cooling_curves.svg.tmp when run in its folder
