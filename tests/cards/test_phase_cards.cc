@@ -204,4 +204,42 @@ TEST(PhaseCards, IronTransformationHeats) {
   EXPECT_NEAR(latent / 13810.0 - 1, 0.0, 0.01);
 }
 
+// NIST Chemistry WebBook, silicon: solid 298-1685 K; liquid c_p 27.19604 J/mol/K.
+const Shomate kSiSolid{298,       1685,     22.81719,  3.899510,
+                       -0.082885, 0.042111, -0.354063, -8.163946};
+
+// Silicon, solid and liquid: c_p within 3 % (the measured worst is printed) and
+// H(T) - H(298.15 K) within 2 % in the solid; the melting heat from the card's
+// energy step against the CRC Handbook's 50.21 kJ/mol (verified) within 1 %.
+TEST(PhaseCards, SiliconAgainstNistJanafSolidAndLiquid) {
+  const MaterialPtr si = load_card(material_path("silicon.yaml"));
+  for (double t : {298.15, 400.0, 600.0, 800.0, 1000.0, 1200.0, 1400.0, 1600.0}) {
+    const double model = si->thermal(t, Basis::mole).capacity;
+    const double reference = kSiSolid.capacity(t); // Chase 1998 (NIST-JANAF), solid
+    std::printf("  silicon c_p(%6.1f K) card %7.3f  JANAF %7.3f J/mol/K  %+5.2f %%\n", t,
+                model, reference, 100 * deviation(model, reference));
+    EXPECT_NEAR(deviation(model, reference), 0.0, 0.03) << t;
+  }
+  for (double t : {1700.0, 1790.0}) // Chase 1998 (NIST-JANAF), liquid, 27.19604 J/mol/K
+    EXPECT_NEAR(deviation(si->thermal(t, Basis::mole).capacity, 27.19604), 0.0, 0.03)
+        << t;
+  const double h0 = si->thermal(298.15, Basis::mole).energy;
+  for (double t : {600.0, 1000.0, 1600.0}) {
+    const double model = si->thermal(t, Basis::mole).energy - h0;
+    const double reference = kSiSolid.enthalpy(t); // Chase 1998 (NIST-JANAF)
+    std::printf(
+        "  silicon H(%6.1f K) - H(298.15 K) card %8.1f  JANAF %8.1f J/mol  %+5.2f %%\n",
+        t, model, reference, 100 * deviation(model, reference));
+    EXPECT_NEAR(deviation(model, reference), 0.0, 0.02) << t;
+  }
+  const double below = 1677.0, above = 1697.0, tm = 1687.0;
+  const double jump =
+      si->thermal(above, Basis::mole).energy - si->thermal(below, Basis::mole).energy;
+  const double latent = jump - kSiSolid.capacity(tm) * (tm - below) -
+                        27.19604 * (above - tm); // JANAF sensible heats either side
+  std::printf("  silicon latent heat from the card's energy %.1f J/mol (CRC 50210)\n",
+              latent);
+  EXPECT_NEAR(latent / 50210.0 - 1, 0.0, 0.01);
+}
+
 } // namespace
