@@ -11,8 +11,11 @@
 
 #include <quantacal/cards/card.h>
 
+#include <boost/math/quadrature/gauss_kronrod.hpp>
+
 #include <gtest/gtest.h>
 
+#include <algorithm>
 #include <cmath>
 #include <cstdio>
 
@@ -240,6 +243,46 @@ TEST(PhaseCards, SiliconAgainstNistJanafSolidAndLiquid) {
   std::printf("  silicon latent heat from the card's energy %.1f J/mol (CRC 50210)\n",
               latent);
   EXPECT_NEAR(latent / 50210.0 - 1, 0.0, 0.01);
+}
+
+// NIST Chemistry WebBook, chromium: 298-600 K and 600-2130 K (JANAF's melting
+// point; SGTE and the CRC Handbook give 2180 K).
+const Shomate kCrLow{298, 600, 7.489737, 71.50498, -91.67562, 46.04450, 0.138157, 0};
+const Shomate kCrHigh{600, 2130, 18.46508, 5.477986, 7.904329, -1.147848, 1.265791, 0};
+
+double janaf_chromium(double t) {
+  return t <= 600.0 ? kCrLow.capacity(t) : kCrHigh.capacity(t);
+}
+
+// Chromium to 2100 K: c_p within 3 % to 1600 K; towards melting the assessments'
+// premelting rise differs (SGTE melts at 2180 K, JANAF at 2130 K): 4 % at 1900 K
+// and, within 5 % of the melting point, 7 % at 2100 K, said here (measured +3.5 %
+// and +6.4 %). H(T) - H(298.15 K) within 2 %, the JANAF enthalpy integrated here
+// (Boost.Math Gauss-Kronrod) from its c_p.
+TEST(PhaseCards, ChromiumAgainstNistJanaf) {
+  const MaterialPtr cr = load_card(material_path("chromium.yaml"));
+  for (double t : {298.15, 400.0, 600.0, 800.0, 1000.0, 1300.0, 1600.0, 1900.0, 2100.0}) {
+    const double model = cr->thermal(t, Basis::mole).capacity;
+    const double reference = janaf_chromium(t); // Chase 1998 (NIST-JANAF)
+    std::printf("  chromium c_p(%6.1f K) card %7.3f  JANAF %7.3f J/mol/K  %+5.2f %%\n", t,
+                model, reference, 100 * deviation(model, reference));
+    const double tolerance = t > 2000.0 ? 0.07 : t > 1700.0 ? 0.04 : 0.03;
+    EXPECT_NEAR(deviation(model, reference), 0.0, tolerance) << t;
+  }
+  using boost::math::quadrature::gauss_kronrod;
+  const double h0 = cr->thermal(298.15, Basis::mole).energy;
+  for (double t : {600.0, 1200.0, 2100.0}) {
+    double reference = gauss_kronrod<double, 61>::integrate(
+        janaf_chromium, 298.15, std::min(t, 600.0), 15, 1e-12);
+    if (t > 600.0)
+      reference +=
+          gauss_kronrod<double, 61>::integrate(janaf_chromium, 600.0, t, 15, 1e-12);
+    const double model = cr->thermal(t, Basis::mole).energy - h0;
+    std::printf(
+        "  chromium H(%6.1f K) - H(298.15 K) card %8.1f  JANAF %8.1f J/mol  %+5.2f %%\n",
+        t, model, reference, 100 * deviation(model, reference));
+    EXPECT_NEAR(deviation(model, reference), 0.0, 0.02) << t;
+  }
 }
 
 } // namespace
