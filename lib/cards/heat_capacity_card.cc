@@ -118,7 +118,7 @@ ContributionPtr read_electronic(CardReader& reader, const YAML::Node& node,
 // A latent heat smeared over `width` around `temperature` (molar or specific latent
 // heat).
 // `kind: gibbs_series`: pieces of the Gibbs-energy series of assessed element data,
-// each {from (first piece only), to, c, d, e, f, g, h}, coefficients in J/mol with
+// each {from (first piece only), to, c, d, e, f, g, h, i}, coefficients in J/mol with
 // T in K (phases.h).
 ContributionPtr read_gibbs_series(CardReader& reader, const YAML::Node& node,
                                   const std::string& path) {
@@ -132,7 +132,7 @@ ContributionPtr read_gibbs_series(CardReader& reader, const YAML::Node& node,
   for (std::size_t k = 0; k < list.size(); ++k) {
     const std::string ip = index_path(ppath, k);
     const YAML::Node item = list[k];
-    reader.check_keys(item, ip, {"from", "to", "c", "d", "e", "f", "g", "h"});
+    reader.check_keys(item, ip, {"from", "to", "c", "d", "e", "f", "g", "h", "i"});
     GibbsPiece p;
     if (k == 0) {
       p.from = temperature_parameter(reader, item, ip, "from");
@@ -148,9 +148,9 @@ ContributionPtr read_gibbs_series(CardReader& reader, const YAML::Node& node,
       reader.fail(to, join_path(ip, "to"), reader.text(to, join_path(ip, "to")),
                   "expected the end of the piece above its start (" +
                       format_double(p.from) + " K)");
-    double* coefficient[] = {&p.c, &p.d, &p.e, &p.f, &p.g, &p.h};
-    const char* names[] = {"c", "d", "e", "f", "g", "h"};
-    for (int i = 0; i < 6; ++i) {
+    double* coefficient[] = {&p.c, &p.d, &p.e, &p.f, &p.g, &p.h, &p.i};
+    const char* names[] = {"c", "d", "e", "f", "g", "h", "i"};
+    for (int i = 0; i < 7; ++i) {
       const YAML::Node n = reader.optional(item, names[i]);
       if (!n.IsDefined())
         continue;

@@ -170,9 +170,10 @@ public:
     const double inv10 = inv2 * inv2 * inv2 * inv2 * inv2;
     ThermalState s;
     s.capacity = -p.c - 2.0 * p.d * t - 6.0 * p.e * t2 - 2.0 * p.f * inv2 -
-                 42.0 * p.g * t6 - 90.0 * p.h * inv10;
+                 42.0 * p.g * t6 - 90.0 * p.h * inv10 - 12.0 * p.i * t2 * t;
     s.capacity_derivative = -2.0 * p.d - 12.0 * p.e * t + 4.0 * p.f * inv2 / t -
-                            252.0 * p.g * t6 / t + 900.0 * p.h * inv10 / t;
+                            252.0 * p.g * t6 / t + 900.0 * p.h * inv10 / t -
+                            36.0 * p.i * t2;
     s.energy = base_[k] + enthalpy(p, t) - enthalpy(p, p.from);
     return s;
   }
@@ -184,12 +185,12 @@ public:
   }
 
 private:
-  // H - a = -c T - d T^2 - 2 e T^3 + 2 f/T - 6 g T^7 + 10 h T^-9
+  // H - a = -c T - d T^2 - 2 e T^3 + 2 f/T - 6 g T^7 + 10 h T^-9 - 3 i T^4
   static double enthalpy(const GibbsPiece& p, double t) {
     const double t2 = t * t;
     const double t3 = t2 * t;
     return -p.c * t - p.d * t2 - 2.0 * p.e * t3 + 2.0 * p.f / t -
-           6.0 * p.g * t3 * t3 * t + 10.0 * p.h / (t3 * t3 * t3);
+           6.0 * p.g * t3 * t3 * t + 10.0 * p.h / (t3 * t3 * t3) - 3.0 * p.i * t2 * t2;
   }
 
   std::vector<GibbsPiece> pieces_;
@@ -316,10 +317,10 @@ ContributionPtr make_gibbs_series(std::vector<GibbsPiece> pieces) {
       detail::invalid_parameter("gibbs_series", name + " from", p.from, "K",
                                 "the end of the piece before (" +
                                     format_double(pieces[k - 1].to) + " K)");
-    for (double v : {p.c, p.d, p.e, p.f, p.g, p.h})
+    for (double v : {p.c, p.d, p.e, p.f, p.g, p.h, p.i})
       if (!std::isfinite(v))
         detail::invalid_parameter("gibbs_series", name, v, "",
-                                  "finite coefficients c to h");
+                                  "finite coefficients c to i");
   }
   return std::make_shared<GibbsSeries>(std::move(pieces));
 }

@@ -285,4 +285,34 @@ TEST(PhaseCards, ChromiumAgainstNistJanaf) {
   }
 }
 
+// NIST Chemistry WebBook, tungsten, 298-1900 K (A to E as transcribed in public
+// code: 23.9593, 2.63968, 1.25775, -0.254642, -0.048407; a second transcription,
+// 23.95700 and -0.253642 for A and D, moves c_p by under 0.02 %).
+const Shomate kWLow{298, 1900, 23.9593, 2.63968, 1.25775, -0.254642, -0.048407, 0};
+
+// Tungsten: c_p within 3 % from 298 K to 1900 K, the end of the JANAF piece
+// (measured worst about -2 %); H(T) - H(298.15 K) within 2 %, integrated here.
+// Above 1900 K to the card's 2500 K no independent c_p is checked here.
+TEST(PhaseCards, TungstenAgainstNistJanafTo1900K) {
+  const MaterialPtr w = load_card(material_path("tungsten.yaml"));
+  for (double t : {298.15, 400.0, 600.0, 800.0, 1000.0, 1200.0, 1500.0, 1700.0, 1900.0}) {
+    const double model = w->thermal(t, Basis::mole).capacity;
+    const double reference = kWLow.capacity(t); // Chase 1998 (NIST-JANAF)
+    std::printf("  tungsten c_p(%6.1f K) card %7.3f  JANAF %7.3f J/mol/K  %+5.2f %%\n", t,
+                model, reference, 100 * deviation(model, reference));
+    EXPECT_NEAR(deviation(model, reference), 0.0, 0.03) << t;
+  }
+  const double h0 = w->thermal(298.15, Basis::mole).energy;
+  for (double t : {600.0, 1200.0, 1900.0}) {
+    const double model = w->thermal(t, Basis::mole).energy - h0;
+    const double reference =
+        boost::math::quadrature::gauss_kronrod<double, 61>::integrate(
+            [](double x) { return kWLow.capacity(x); }, 298.15, t, 15, 1e-12);
+    std::printf(
+        "  tungsten H(%6.1f K) - H(298.15 K) card %8.1f  JANAF %8.1f J/mol  %+5.2f %%\n",
+        t, model, reference, 100 * deviation(model, reference));
+    EXPECT_NEAR(deviation(model, reference), 0.0, 0.02) << t;
+  }
+}
+
 } // namespace

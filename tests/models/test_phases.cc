@@ -80,6 +80,34 @@ TEST(GibbsSeries, EnergyIsTheEnthalpyOfGAcrossItsPieces) {
   EXPECT_EQ(s->evaluate(298.15).energy, 0.0);
 }
 
+// GHSERWW (tungsten, 298.15-3695 K, Dinsdale 1991), the one element function
+// here with a T^4 term: C and H against G written out and differentiated.
+double ghser_w(double t) {
+  return -7646.311 + 130.4 * t - 24.1 * t * std::log(t) - 1.936e-3 * t * t +
+         2.07e-7 * t * t * t - 5.33e-11 * t * t * t * t + 44500.0 / t;
+}
+
+TEST(GibbsSeries, TheTFourthTermOfTungsten) {
+  GibbsPiece w{298.15, 3695.0, -24.1, -1.936e-3, 2.07e-7, 44500.0};
+  w.i = -5.33e-11;
+  const ContributionPtr s = make_gibbs_series({w});
+  const auto h = [](double t) {
+    return ghser_w(t) - t * richardson_derivative(ghser_w, t, 0.5);
+  };
+  for (double t : {400.0, 1500.0, 3000.0}) {
+    const double c =
+        -t * richardson_derivative(
+                 [](double x) { return richardson_derivative(ghser_w, x, 0.5); }, t, 0.5);
+    EXPECT_LT(relative_difference(s->evaluate(t).capacity, c), 1e-6) << t;
+    const double du = s->evaluate(t).energy - s->evaluate(400.0).energy;
+    if (t > 400.0)
+      EXPECT_LT(std::fabs(du - (h(t) - h(400.0))), 1e-6 * du) << t;
+    const double dc =
+        richardson_derivative([&](double x) { return s->evaluate(x).capacity; }, t, 0.5);
+    EXPECT_LT(std::fabs(s->evaluate(t).capacity_derivative - dc), 1e-8 * c) << t;
+  }
+}
+
 TEST(GibbsSeries, RejectsGapsEmptyPiecesAndNonFiniteCoefficients) {
   EXPECT_THROW(make_gibbs_series({}), InputError);
   EXPECT_THROW(make_gibbs_series({{300, 700, -24}, {710, 900, -24}}), InputError);

@@ -105,15 +105,16 @@ ConductivityPtr make_phase_conductivity(std::vector<ConductivityPtr> phases,
 /**
  * One temperature interval of the Gibbs-energy series of assessed element data
  * (the SGTE unary form, Dinsdale, CALPHAD 15 (1991) 317):
- * G = a + b T + c T ln T + d T^2 + e T^3 + f/T + g T^7 + h T^-9 (J/mol, T in K).
- * Only c to h set the capacity, C = -c - 2 d T - 6 e T^2 - 2 f/T^2 - 42 g T^6
- * - 90 h T^-10, and the enthalpy H = a - c T - d T^2 - 2 e T^3 + 2 f/T - 6 g T^7
- * + 10 h T^-9.
+ * G = a + b T + c T ln T + d T^2 + e T^3 + f/T + g T^7 + h T^-9 + i T^4 (J/mol,
+ * T in K; the T^4 term appears for a few elements, e.g. tungsten). Only c to i
+ * set the capacity, C = -c - 2 d T - 6 e T^2 - 2 f/T^2 - 42 g T^6 - 90 h T^-10
+ * - 12 i T^3, and the enthalpy H = a - c T - d T^2 - 2 e T^3 + 2 f/T - 6 g T^7
+ * + 10 h T^-9 - 3 i T^4.
  */
 struct GibbsPiece {
   double from = 0.0; ///< K
   double to = 0.0;   ///< K
-  double c = 0.0, d = 0.0, e = 0.0, f = 0.0, g = 0.0, h = 0.0;
+  double c = 0.0, d = 0.0, e = 0.0, f = 0.0, g = 0.0, h = 0.0, i = 0.0;
 };
 
 /**
