@@ -232,41 +232,6 @@ TEST(BundledCards, CopperConductivity) {
   EXPECT_THROW(cu->conductivity(2.0), RangeError);
 }
 
-TEST(BundledCards, StainlessByComposition) {
-  const MaterialPtr ss = load_card(material_path("stainless_304.yaml"));
-  const MaterialPtr fe = load_card(material_path("iron.yaml"));
-  const MaterialPtr cr = load_card(material_path("chromium.yaml"));
-  const MaterialPtr ni = load_card(material_path("nickel.yaml"));
-  // Neumann-Kopp: the molar capacity is the mole-fraction sum (analytic; numerical
-  // 1e-12).
-  for (double t : {100.0, 200.0, 300.0, 600.0}) {
-    const double sum = 0.7330 * fe->model().evaluate(t).capacity +
-                       0.1916 * cr->model().evaluate(t).capacity +
-                       0.0754 * ni->model().evaluate(t).capacity;
-    EXPECT_NEAR(relative(ss->thermal_exact(t, Basis::mole).capacity, sum), 0.0, 1e-12);
-  }
-  EXPECT_NEAR(ss->molar_mass(),
-              0.7330 * fe->molar_mass() + 0.1916 * cr->molar_mass() +
-                  0.0754 * ni->molar_mass(),
-              1e-15);
-  // The card claims only the 100-600 K its components share (a composed card
-  // cannot claim more): below it the element cards are not valid.
-  EXPECT_DOUBLE_EQ(ss->lower_temperature(), 100.0);
-  EXPECT_DOUBLE_EQ(ss->upper_temperature(), 600.0);
-  EXPECT_THROW(ss->conductivity(77.0), RangeError);
-  // Fit check: the conductivity table's own point at 300 K (NIST 304/316,
-  // Marquardt, Le and Radebaugh 2000, computed).
-  EXPECT_NEAR(relative(ss->conductivity(300.0).value, 15.3), 0.0, 1e-12);
-  // c_p at 300 K: 477 J/kg/K (Incropera and DeWitt, Table A.1, AISI 304; from
-  // memory); Neumann-Kopp of the element cards is about 6 % low, within 8 % (model
-  // limit).
-  const double cp = ss->thermal(300.0).capacity;
-  std::printf("  stainless 304 c_p(300 K) = %.1f J/kg/K vs 477 (%+.1f %%)\n", cp,
-              100 * relative(cp, 477.0));
-  EXPECT_NEAR(relative(cp, 477.0), 0.0,
-              0.08); // Incropera and DeWitt, Table A.1 (from memory)
-}
-
 TEST(BundledCards, AluminiumMelting) {
   const MaterialPtr al = load_card(material_path("aluminium.yaml"));
   // FIT CHECK: the card states the latent heat 10.71 kJ/mol (CRC Handbook of
