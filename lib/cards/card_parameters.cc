@@ -24,10 +24,14 @@ std::string joined(const std::vector<std::string>& items) {
 std::vector<CardParameter> card_parameters(const Material& material) {
   std::vector<CardParameter> all;
   const auto& contributions = material.model().contributions();
+  // A card with phases holds one term, the phase sequence, whose parameters are
+  // named by their card paths already ("phases[1].from.temperature").
+  const bool phased = material.data().phase_layout != nullptr;
   for (std::size_t i = 0; i < contributions.size(); ++i)
     for (const Parameter& p : contributions[i]->parameters())
-      all.push_back({"heat_capacity[" + std::to_string(i) + "]." + p.name, false, i,
-                     p.name, p.unit, p.value});
+      all.push_back(
+          {phased ? p.name : "heat_capacity[" + std::to_string(i) + "]." + p.name, false,
+           i, p.name, p.unit, p.value});
   const auto metal =
       std::dynamic_pointer_cast<const MetalConductivity>(material.data().conductivity);
   if (metal)
@@ -44,10 +48,12 @@ std::vector<CardParameter> resolve_card_parameters(const Material& material,
   };
   // All parameters by full path, and bare names with the paths they can mean.
   const std::vector<CardParameter> all = card_parameters(material);
+  // (the bare name is the last part of the path: "theta_D" for
+  // "phases[0].heat_capacity[0].theta_D")
   std::map<std::string, std::vector<std::size_t>> bare;
   for (std::size_t k = 0; k < all.size(); ++k)
     if (!all[k].conductivity)
-      bare[all[k].name].push_back(k);
+      bare[all[k].name.substr(all[k].name.rfind('.') + 1)].push_back(k);
   std::vector<std::string> choices;
   for (const auto& p : all)
     choices.push_back(p.path);

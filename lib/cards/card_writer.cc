@@ -94,17 +94,42 @@ std::size_t next_line(const std::string& text, std::size_t pos) {
   return nl == std::string::npos ? text.size() : nl + 1;
 }
 
+/**
+ * The map holding the last key of @p path ("phases[0].heat_capacity[1].theta_D":
+ * the map of phases[0].heat_capacity[1]), and that key; an undefined node if the
+ * path does not lead to a map.
+ */
+YAML::Node parent_of(const YAML::Node& root, const std::string& path, std::string& key) {
+  const std::size_t dot = path.rfind('.');
+  key = path.substr(dot + 1);
+  YAML::Node node(root);
+  std::size_t at = 0;
+  while (dot != std::string::npos && at < dot) {
+    const std::size_t end = std::min(path.find('.', at), dot);
+    const std::string part = path.substr(at, end - at);
+    const std::size_t bracket = part.find('[');
+    node.reset(node[part.substr(0, bracket)]);
+    for (std::size_t b = bracket; b != std::string::npos && node.IsDefined();
+         b = part.find('[', b + 1))
+      node.reset(node[static_cast<std::size_t>(std::stoul(part.substr(b + 1)))]);
+    if (!node.IsDefined())
+      return node;
+    at = end + 1;
+  }
+  return node;
+}
+
 /** The edit writing one new value: in place, or as a new key of a block map. */
 Edit value_edit(const std::string& text, const std::string& file, const YAML::Node& root,
                 const ParameterValue& change) {
   const CardParameter& p = change.parameter;
-  const YAML::Node map = p.conductivity ? YAML::Node(root["conductivity"])
-                                        : YAML::Node(root["heat_capacity"][p.index]);
+  std::string key;
+  const YAML::Node map = parent_of(root, p.path, key);
   if (!map.IsDefined() || !map.IsMap())
     throw InputError(file, 0, 0, p.path, "",
                      "cannot locate this block in the start card to write the fitted "
                      "value");
-  const YAML::Node value = map[p.name];
+  const YAML::Node value = map[key];
   const std::string written = card_value(change.value, p.unit);
   if (value.IsDefined()) {
     const std::size_t pos = static_cast<std::size_t>(value.Mark().pos);
@@ -114,7 +139,7 @@ Edit value_edit(const std::string& text, const std::string& file, const YAML::No
     // A defaulted parameter (e.g. modes): a new key below the block's first line.
     const std::size_t pos = static_cast<std::size_t>(map.Mark().pos);
     const std::string indent(static_cast<std::size_t>(map.Mark().column), ' ');
-    return {next_line(text, pos), 0, indent + p.name + ": " + written + "\n"};
+    return {next_line(text, pos), 0, indent + key + ": " + written + "\n"};
   }
   throw InputError(file, map.Mark().line + 1, map.Mark().column + 1, p.path, "",
                    "the parameter is not written in this flow-style block; write it out "

@@ -8,6 +8,7 @@
 #include <quantacal/models/phases.h>
 
 #include <cmath>
+#include <cstdio>
 #include <limits>
 #include <string>
 #include <utility>
@@ -77,35 +78,56 @@ public:
     return r;
   }
 
+  // Named by their card paths: "phases[i].from.temperature" (latent_heat, width)
+  // for the boundary into phase i, "phases[i].heat_capacity[k].<name>" for the
+  // terms of phase i.
   std::vector<Parameter> parameters() const override {
     std::vector<Parameter> p;
     const auto& b = layout_.boundaries();
-    for (std::size_t i = 0; i < b.size(); ++i) {
-      const std::string n = std::to_string(i + 1);
-      p.push_back({"temperature_" + n, b[i].temperature, "K"});
-      p.push_back({"latent_heat_" + n, b[i].latent_heat, "J/mol"});
-      p.push_back({"width_" + n, b[i].width, "K"});
+    for (std::size_t i = 0; i < phases_.size(); ++i) {
+      const std::string phase = "phases[" + std::to_string(i) + "]";
+      if (i > 0) {
+        p.push_back({phase + ".from.temperature", b[i - 1].temperature, "K"});
+        p.push_back({phase + ".from.latent_heat", b[i - 1].latent_heat, "J/mol"});
+        p.push_back({phase + ".from.width", b[i - 1].width, "K"});
+      }
+      const auto& terms = phases_[i]->contributions();
+      for (std::size_t k = 0; k < terms.size(); ++k)
+        for (const Parameter& q : terms[k]->parameters())
+          p.push_back({phase + ".heat_capacity[" + std::to_string(k) + "]." + q.name,
+                       q.value, q.unit});
     }
     return p;
   }
 
   ContributionPtr with_parameter(const std::string& name, double value) const override {
-    std::vector<PhaseBoundary> b = layout_.boundaries();
-    std::string known;
-    for (std::size_t i = 0; i < b.size(); ++i) {
-      const std::string n = std::to_string(i + 1);
-      known += (known.empty() ? "" : ", ") + ("temperature_" + n) + ", latent_heat_" + n +
-               ", width_" + n;
-      if (name == "temperature_" + n)
-        b[i].temperature = value;
-      else if (name == "latent_heat_" + n)
-        b[i].latent_heat = value;
-      else if (name == "width_" + n)
-        b[i].width = value;
+    std::size_t i = 0, k = 0;
+    char rest[64] = {};
+    if (std::sscanf(name.c_str(), "phases[%zu].heat_capacity[%zu].%63s", &i, &k, rest) ==
+            3 &&
+        i < phases_.size() && k < phases_[i]->contributions().size()) {
+      auto phases = phases_;
+      phases[i] = std::make_shared<const HeatCapacityModel>(phases_[i]->with_contribution(
+          k, phases_[i]->contributions()[k]->with_parameter(rest, value)));
+      return make_phase_sequence(std::move(phases), layout_);
+    }
+    if (std::sscanf(name.c_str(), "phases[%zu].from.%63s", &i, rest) == 2 && i > 0 &&
+        i < phases_.size()) {
+      std::vector<PhaseBoundary> b = layout_.boundaries();
+      const std::string key = rest;
+      if (key == "temperature")
+        b[i - 1].temperature = value;
+      else if (key == "latent_heat")
+        b[i - 1].latent_heat = value;
+      else if (key == "width")
+        b[i - 1].width = value;
       else
-        continue;
+        detail::unknown_parameter("phases", name, "temperature, latent_heat, width");
       return make_phase_sequence(phases_, PhaseLayout(std::move(b)));
     }
+    std::string known;
+    for (const Parameter& q : parameters())
+      known += (known.empty() ? "" : ", ") + q.name;
     detail::unknown_parameter("phases", name, known);
   }
 

@@ -256,8 +256,8 @@ TEST(FitDiagnostics, WrongFixedTermGivesSystematicResidualWarning) {
       << w;
   // The card's Einstein term is the wrong fixed term: freeing it is suggested; the
   // freed parameters are not.
-  EXPECT_TRUE(suggests(r, "heat_capacity[1].theta_E")) << w;
-  EXPECT_TRUE(suggests(r, "heat_capacity[1].modes")) << w;
+  EXPECT_TRUE(suggests(r, "phases[0].heat_capacity[1].theta_E")) << w;
+  EXPECT_TRUE(suggests(r, "phases[0].heat_capacity[1].modes")) << w;
   EXPECT_FALSE(suggests(r, "heat_capacity[0].theta_D")) << w;
   EXPECT_FALSE(suggests(r, "heat_capacity[2].gamma")) << w;
   EXPECT_LE(r.diagnostics.suggestions.size(), fit::max_suggested_parameters);

@@ -186,10 +186,22 @@ TEST(PhaseSequence, ReportsJoinBreakpointsAndItsParameters) {
   const std::vector<double> bp = p.joined->breakpoints();
   for (double t : {290.0, 300.0, 310.0})
     EXPECT_NE(std::find(bp.begin(), bp.end(), t), bp.end()) << t;
-  const ContributionPtr moved = p.joined->with_parameter("latent_heat_1", 2000.0);
+  const ContributionPtr moved =
+      p.joined->with_parameter("phases[1].from.latent_heat", 2000.0);
   EXPECT_NEAR(moved->evaluate(400.0).energy - p.joined->evaluate(400.0).energy, 1000.0,
               1e-9);
+  // The terms of a phase are parameters too, by their card paths.
+  const ContributionPtr hotter =
+      p.joined->with_parameter("phases[0].heat_capacity[0].theta_D", 350.0);
+  EXPECT_NEAR(hotter->evaluate(100.0).capacity,
+              make_debye(350.0)->evaluate(100.0).capacity + 1e-3 * 100.0, 1e-9);
+  bool listed = false;
+  for (const Parameter& q : p.joined->parameters())
+    listed =
+        listed || (q.name == "phases[1].heat_capacity[0].theta_E" && q.value == 250.0);
+  EXPECT_TRUE(listed);
   EXPECT_THROW(p.joined->with_parameter("latent", 1.0), InputError);
+  EXPECT_THROW(p.joined->with_parameter("phases[0].from.width", 1.0), InputError);
 }
 
 TEST(PhaseLayout, RejectsUnorderedOverlappingAndNonPhysicalBoundaries) {
