@@ -7,6 +7,7 @@
 // Their validation against an independent assessment (NIST-JANAF) is in
 // test_phase_cards.cc, test_nickel_titanium_cards.cc and
 // test_copper_silver_lead_cards.cc.
+#include "published_forms.h"
 #include "support.h"
 
 #include <quantacal/cards/card.h>
@@ -54,16 +55,7 @@ const GibbsPolynomial kIronLattice{-23.5143, -4.39752e-3, -5.8927e-8, 77359.0};
 // G_mag = R T ln(beta + 1) g(tau) (Hillert and Jarl 1978 form), written out here
 // on its own: T_C = 1043 K, beta = 2.22, p = 0.40 for bcc iron (Dinsdale 1991).
 double sgte_iron_magnetic(double t) {
-  const double k = quantacal::gas_constant * std::log(1 + 2.22);
-  const double q = 1 / 0.40 - 1;
-  const double d = 518.0 / 1125.0 + 11692.0 / 15975.0 * q;
-  const double tau = t / 1043.0;
-  if (tau < 1)
-    return k * (474.0 / 497.0) * q / d *
-           (2 * std::pow(tau, 3) + 2 * std::pow(tau, 9) / 3 + 2 * std::pow(tau, 15) / 5);
-  return k / d *
-         (2 * std::pow(tau, -5) + 2 * std::pow(tau, -15) / 3 +
-          2 * std::pow(tau, -25) / 5);
+  return quantacal::test::sgte_magnetic_capacity(t, 1043.0, 2.22, 0.40);
 }
 
 double sgte_iron(double t) {

@@ -25,6 +25,7 @@
 // ahead of the melt (30.6 J/mol/K at 1200 K, 32.2 at 1300 K) and the SGTE series
 // the card carries does not (29.3, 29.6), a difference of the two assessments the
 // card inherits (measured -4.4 % and -7.9 %, printed).
+#include "published_forms.h"
 #include "support.h"
 
 #include <quantacal/cards/card.h>
@@ -43,25 +44,9 @@ namespace {
 
 using namespace quantacal;
 using quantacal::test::data_path;
+using quantacal::test::deviation;
 using quantacal::test::material_path;
-
-double deviation(double model, double reference) {
-  return model / reference - 1;
-}
-
-struct Shomate {
-  double from, to; // K
-  double a, b, c, d, e, f;
-  double capacity(double t) const { // J/mol/K
-    const double x = t / 1000.0;
-    return a + b * x + c * x * x + d * x * x * x + e / (x * x);
-  }
-  double enthalpy(double t) const { // H - H(298.15 K, solid), J/mol
-    const double x = t / 1000.0;
-    return 1000.0 * (a * x + b * x * x / 2 + c * x * x * x / 3 + d * x * x * x * x / 4 -
-                     e / x + f);
-  }
-};
+using quantacal::test::Shomate;
 
 // NIST Chemistry WebBook, copper (Chase 1998): solid 298-1358 K, liquid
 // 1358-2843 K.

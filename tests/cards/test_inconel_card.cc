@@ -19,6 +19,7 @@
 //   c_p above room temperature or for k above 1073 K.
 // Tolerances: c_p 5 %, H(T) - H(298.15 K) 2 %; conductivity fit checks 1 %, the
 // independent conductivity check 5 % (a judgement: no stated uncertainty).
+#include "published_forms.h"
 #include "support.h"
 
 #include <quantacal/cards/card.h>
@@ -32,6 +33,7 @@
 namespace {
 
 using namespace quantacal;
+using quantacal::test::deviation;
 using quantacal::test::material_path;
 
 // Special Metals data sheet, INCONEL alloy 600 (from memory), 20-1000 degC.
@@ -60,10 +62,6 @@ double sheet_enthalpy(double t) {
     sum += w * interpolate(kSheetCp, 298.15 + i * h);
   }
   return sum * h;
-}
-
-double deviation(double model, double reference) {
-  return model / reference - 1;
 }
 
 MaterialPtr card() {

@@ -13,6 +13,7 @@
 // assessments disagree by more than that away from a transition (alpha titanium
 // near 800 K, liquid nickel), the card follows SGTE and the test pins the
 // measured disagreement, labelled as such: it is not validation.
+#include "published_forms.h"
 #include "support.h"
 
 #include <quantacal/cards/card.h>
@@ -29,28 +30,19 @@
 namespace {
 
 using namespace quantacal;
+using quantacal::test::deviation;
 using quantacal::test::material_path;
-
-struct Shomate {
-  double a, b, c, d, e, f;
-  double capacity(double t) const { // J/mol/K
-    const double x = t / 1000.0;
-    return a + b * x + c * x * x + d * x * x * x + e / (x * x);
-  }
-  double enthalpy(double t) const { // H - H(298.15 K, solid), J/mol
-    const double x = t / 1000.0;
-    return 1000.0 * (a * x + b * x * x / 2 + c * x * x * x / 3 + d * x * x * x * x / 4 -
-                     e / x + f);
-  }
-};
+using quantacal::test::Shomate;
 
 // NIST Chemistry WebBook, nickel (Chase 1998; data last reviewed December 1976):
 // solid 298-600 K, 600-700 K (the Curie peak) and 700-1728 K, liquid 1728-3000 K.
 // The solid coefficients are those of the WebBook's page in calories times 4.184.
-const Shomate kNiSolid1{13.69160, 82.49509, -174.9548, 161.6011, -0.092417, -6.833644};
-const Shomate kNiSolid2{1248.045, -1257.510, 0, 0, -165.1266, -788.8263};
-const Shomate kNiSolid3{16.49839, 18.74913, -6.639841, 1.717278, 1.872051, -0.467675};
-const Shomate kNiLiquid{38.91103, 0, 0, 0, 0, -2.722630};
+const Shomate kNiSolid1{298,       600,      13.69160,  82.49509,
+                        -174.9548, 161.6011, -0.092417, -6.833644};
+const Shomate kNiSolid2{600, 700, 1248.045, -1257.510, 0, 0, -165.1266, -788.8263};
+const Shomate kNiSolid3{700,       1728,     16.49839, 18.74913,
+                        -6.639841, 1.717278, 1.872051, -0.467675};
+const Shomate kNiLiquid{1728, 3000, 38.91103, 0, 0, 0, 0, -2.722630};
 
 const Shomate& ni_janaf(double t) {
   if (t >= 1728.0)
@@ -63,11 +55,14 @@ const Shomate& ni_janaf(double t) {
 // NIST Chemistry WebBook, titanium (Chase 1998; data last reviewed June 1979):
 // alpha 298-700 K and 700-1700 K, beta 298-1939 K, liquid 1939-3631 K. JANAF puts
 // the alpha-beta transition at 1166 K and melting at 1939 K (SGTE: 1155 K, 1941 K).
-const Shomate kTiAlpha1{22.61942, 18.98795, -18.18735, 7.080792, -0.143457, -7.922279};
-const Shomate kTiAlpha2{44.37174, -44.09225, 31.70602, 0.052209, 0.036168, -12.72011};
-const Shomate kTiBeta{23.05660, 5.541331, -2.055881, 1.611745, -0.056075, -0.433228};
-const Shomate kTiLiquid{47.23694,     1.975192e-8, -5.335145e-9,
-                        4.904109e-10, 1.564855e-8, -22.05273};
+const Shomate kTiAlpha1{298,       700,      22.61942,  18.98795,
+                        -18.18735, 7.080792, -0.143457, -7.922279};
+const Shomate kTiAlpha2{700,      1700,     44.37174, -44.09225,
+                        31.70602, 0.052209, 0.036168, -12.72011};
+const Shomate kTiBeta{298,       1939,     23.05660,  5.541331,
+                      -2.055881, 1.611745, -0.056075, -0.433228};
+const Shomate kTiLiquid{1939,         3631,         47.23694,    1.975192e-8,
+                        -5.335145e-9, 4.904109e-10, 1.564855e-8, -22.05273};
 
 const Shomate& ti_janaf(double t) {
   if (t >= 1939.0)
@@ -109,20 +104,7 @@ const std::vector<GibbsPiece> kTiLiquidSgte = {{4000, -46.29, 0, 0, 0, 0, 0}};
 // Jarl 1978 form), written out here: nickel, fcc, T_C = 633 K, beta = 0.52,
 // p = 0.28 (Dinsdale 1991).
 double sgte_nickel_magnetic(double t) {
-  const double k = quantacal::gas_constant * std::log(1 + 0.52);
-  const double q = 1 / 0.28 - 1;
-  const double d = 518.0 / 1125.0 + 11692.0 / 15975.0 * q;
-  const double tau = t / 633.0;
-  if (tau < 1)
-    return k * (474.0 / 497.0) * q / d *
-           (2 * std::pow(tau, 3) + 2 * std::pow(tau, 9) / 3 + 2 * std::pow(tau, 15) / 5);
-  return k / d *
-         (2 * std::pow(tau, -5) + 2 * std::pow(tau, -15) / 3 +
-          2 * std::pow(tau, -25) / 5);
-}
-
-double deviation(double model, double reference) {
-  return model / reference - 1;
+  return quantacal::test::sgte_magnetic_capacity(t, 633.0, 0.52, 0.28);
 }
 
 double cp(const MaterialPtr& m, double t) {

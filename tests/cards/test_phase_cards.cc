@@ -7,6 +7,7 @@
 // C t^3/3 + D t^4/4 - E/t + F (kJ/mol; t = T/1000 K), relative to the solid at
 // 298.15 K. The cards carry the SGTE series (Dinsdale 1991) above 340 K, so these
 // checks are validation; the fit checks against SGTE are in test_assessed_data.cc.
+#include "published_forms.h"
 #include "support.h"
 
 #include <quantacal/cards/card.h>
@@ -22,21 +23,9 @@
 namespace {
 
 using namespace quantacal;
+using quantacal::test::deviation;
 using quantacal::test::material_path;
-
-struct Shomate {
-  double from, to; // K
-  double a, b, c, d, e, f;
-  double capacity(double t) const { // J/mol/K
-    const double x = t / 1000.0;
-    return a + b * x + c * x * x + d * x * x * x + e / (x * x);
-  }
-  double enthalpy(double t) const { // H - H(298.15 K, solid), J/mol
-    const double x = t / 1000.0;
-    return 1000.0 * (a * x + b * x * x / 2 + c * x * x * x / 3 + d * x * x * x * x / 4 -
-                     e / x + f);
-  }
-};
+using quantacal::test::Shomate;
 
 // NIST Chemistry WebBook, aluminium: solid 298-933 K, liquid 933-2790.812 K.
 const Shomate kAlSolid{298,      933,      28.08920,  -5.414849,
@@ -57,10 +46,6 @@ const Shomate& fe_bcc(double t) {
     if (t <= s.to)
       return s;
   return kFeBcc[3];
-}
-
-double deviation(double model, double reference) {
-  return model / reference - 1;
 }
 
 // c_p within 3 % (the project's requirement) away from the transitions, solid and

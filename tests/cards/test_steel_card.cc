@@ -22,6 +22,7 @@
 // alone, and spreads their transformation heat over 600-900 degC; it is compared
 // pointwise only away from the transformations, and through the enthalpy across
 // them.
+#include "published_forms.h"
 #include "support.h"
 
 #include <quantacal/cards/card.h>
@@ -35,6 +36,7 @@
 namespace {
 
 using namespace quantacal;
+using quantacal::test::deviation;
 using quantacal::test::material_path;
 
 constexpr double kCelsius = 273.15;
@@ -77,10 +79,6 @@ double en_enthalpy(double t_kelvin) {
 double en_conductivity(double t_kelvin) {
   const double t = t_kelvin - kCelsius;
   return t < 800.0 ? 54.0 - 3.33e-2 * t : 27.3;
-}
-
-double deviation(double model, double reference) {
-  return model / reference - 1;
 }
 
 // The card's transitions: Ac1 = 996.5 K, the ferrite-austenite join centred on

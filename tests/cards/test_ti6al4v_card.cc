@@ -24,6 +24,7 @@
 //   the pure-titanium lattice model; printed, not asserted), and no published
 //   conductivity above 300 K other than the recalled handbook values the card
 //   carries (FIT CHECK of the table only).
+#include "published_forms.h"
 #include "support.h"
 
 #include <quantacal/cards/card.h>
@@ -37,30 +38,23 @@
 namespace {
 
 using namespace quantacal;
+using quantacal::test::deviation;
 using quantacal::test::material_path;
+using quantacal::test::nist_log_polynomial;
+using quantacal::test::Shomate;
 
 // NIST Ti-6Al-4V conductivity correlation: coefficients a..i of log10 k in powers
 // of log10 T.
 constexpr double kNistK[9] = {-5107.8774, 19240.422,  -30789.064, 27134.756, -14226.379,
                               4438.2154,  -763.07767, 55.796592,  0.0}; // W/m/K
 
-double nist(const double (&a)[9], double t) {
-  const double x = std::log10(t);
-  double sum = 0.0;
-  for (int n = 8; n >= 0; --n)
-    sum = sum * x + a[n];
-  return std::pow(10.0, sum);
-}
-
 // NIST Chemistry WebBook Shomate fits of NIST-JANAF, alpha titanium, 298-700 K and
 // 700-1166 K: C_p = A + B t + C t^2 + D t^3 + E/t^2 (J/mol/K), H - H(298.15 K) =
 // A t + B t^2/2 + C t^3/3 + D t^4/4 - E/t + F (kJ/mol), t = T/1000 K.
-struct Shomate {
-  double a, b, c, d, e, f;
-};
-constexpr Shomate kTiAlpha1{22.61942, 18.98795,  -18.18735,
-                            7.080792, -0.143457, -7.922279};
-constexpr Shomate kTiAlpha2{44.37174, -44.09225, 31.70602, 0.052209, 0.036168, -12.72011};
+constexpr Shomate kTiAlpha1{298,       700,      22.61942,  18.98795,
+                            -18.18735, 7.080792, -0.143457, -7.922279};
+constexpr Shomate kTiAlpha2{700,      1166,     44.37174, -44.09225,
+                            31.70602, 0.052209, 0.036168, -12.72011};
 
 const Shomate& janaf(double t) {
   return t < 700.0 ? kTiAlpha1 : kTiAlpha2;
@@ -94,10 +88,6 @@ double mills_enthalpy(double t) {
     h += 0.5 * (kMillsCp[i] + c1) * (t1 - kMillsT[i]);
   }
   return h;
-}
-
-double deviation(double model, double reference) {
-  return model / reference - 1;
 }
 
 MaterialPtr card() {
@@ -220,7 +210,8 @@ TEST(Ti6Al4VCard, ConductivityAgainstNistCorrelationFitCheck) {
   const MaterialPtr ti = card();
   for (double t : {27.0, 45.0, 70.0, 100.0, 140.0, 190.0, 240.0, 290.0}) {
     const double model = ti->conductivity(t).value;
-    const double reference = nist(kNistK, t); // NIST Ti-6Al-4V correlation (2000)
+    const double reference =
+        nist_log_polynomial(kNistK, t); // NIST Ti-6Al-4V correlation (2000)
     std::printf(
         "  Ti-6Al-4V k(%5.1f K) card %7.4f  NIST %7.4f W/m/K  %+6.3f %%  (fit check)\n",
         t, model, reference, 100 * deviation(model, reference));
