@@ -105,6 +105,34 @@ TEST(FitCommand, WritesFittedCardReportAndPlot) {
   (void)load_card(out2);
 }
 
+// A card with phases (materials/copper.yaml: lattice model, assessed series,
+// liquid): the Debye temperature of its first phase is fitted by its bare name,
+// reported and written back at its phase path, and the written card loads with it.
+// Synthetic data: the card itself with theta_D 330 K, 5-90 K, exact.
+TEST(FitCommand, APhaseParameterIsFittedAndWrittenBackAtItsPath) {
+  const std::string copper = std::string(QUANTACAL_SOURCE_DIR) + "/materials/copper.yaml";
+  const MaterialPtr start = load_card(copper);
+  const auto truth = start->model().contributions()[0]->with_parameter(
+      "phases[0].heat_capacity[0].theta_D", 330.0);
+  std::string csv = "T_K,cp_J_per_mol_K\n";
+  for (double t = 5.0; t <= 90.0; t += 5.0)
+    csv += format_double(t) + "," + format_double(truth->evaluate(t).capacity) + "\n";
+  TempDir dir;
+  const std::string data = dir.write("phase.csv", csv);
+  const std::string out = (dir.path() / "fitted.yaml").string();
+  const auto r =
+      run_quantacal({"fit", data, "--card", copper, "--free", "theta_D", "-o", out});
+  ASSERT_EQ(r.exit_code, 0) << r.err;
+  EXPECT_NE(r.out.find("phases[0].heat_capacity[0].theta_D"), std::string::npos) << r.out;
+  const MaterialPtr fitted = load_card(out);
+  double theta = 0.0;
+  for (const Parameter& q : fitted->model().contributions()[0]->parameters())
+    if (q.name == "phases[0].heat_capacity[0].theta_D")
+      theta = q.value;
+  EXPECT_NEAR(theta, 330.0, 1e-3);
+  EXPECT_NE(test::read_file(out).find("theta_D: \"330"), std::string::npos);
+}
+
 TEST(FitCommand, ConductivityOfACompositionCardWrittenElsewhere) {
   // k points of the NIST OFHC RRR 50 correlation (computed, coefficients from memory,
   // checked in test_metal_conductivity.cc); the start card composes copper.yaml.
