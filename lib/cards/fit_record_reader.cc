@@ -49,7 +49,8 @@ std::vector<std::string> read_parameter_paths(const CardReader& reader,
   } catch (const InputError& e) {
     if (!e.file().empty())
       throw; // already located
-    reader.fail(list, "fit.parameters", "", e.what());
+    // (without the "--free: " of the command's wording: the field is named here)
+    reader.fail(list, "fit.parameters", "", e.expected());
   }
   return paths;
 }

@@ -62,7 +62,7 @@ TEST(FitRecord, TheLoaderReadsPathsAndCovariance) {
 
 TEST(FitRecord, MalformedRecordsGiveLocatedErrors) {
   EXPECT_EQ(message(replace(kFitted, "heat_capacity[1].gamma", "heat_capacity[1].gama")),
-            "fitted.yaml:17:5: fit.parameters: --free: unknown parameter "
+            "fitted.yaml:17:5: fit.parameters: unknown parameter "
             "'heat_capacity[1].gama' (did you mean 'heat_capacity[1].gamma'?); this "
             "card has: heat_capacity[0].theta_D, heat_capacity[0].modes, "
             "heat_capacity[1].gamma, gamma, modes, theta_D");
