@@ -145,6 +145,17 @@ std::vector<TransitionPassage> passages_of(const Body& body, double final_temper
   std::vector<TransitionPassage> out;
   const double lo = std::min(body.initial_temperature, final_temperature);
   const double hi = std::max(body.initial_temperature, final_temperature);
+  // Keeps a transition the body crosses or ends inside (J/mol latent heat).
+  const auto add = [&](double temperature, double latent, double fraction) {
+    TransitionPassage t;
+    t.temperature = temperature;
+    t.latent_heat = latent / body.material->molar_mass();
+    t.fraction = fraction;
+    t.ends_inside = fraction > 1e-3 && fraction < 1.0 - 1e-3;
+    t.crossed = lo < temperature && temperature < hi;
+    if (t.ends_inside || t.crossed)
+      out.push_back(t);
+  };
   for (const auto& term : body.material->model().contributions()) {
     if (term->kind() != "transition")
       continue;
@@ -155,37 +166,23 @@ std::vector<TransitionPassage> passages_of(const Body& body, double final_temper
       else if (p.name == "latent_heat")
         latent = p.value;
     }
-    if (!(temperature > 0.0 && latent > 0.0))
-      continue;
-    TransitionPassage t;
-    t.temperature = temperature;
-    t.latent_heat = latent / body.material->molar_mass();
-    // The transformed share at T_f is the term's energy over its latent heat.
-    t.fraction = std::clamp(term->evaluate(final_temperature).energy / latent, 0.0, 1.0);
-    t.ends_inside = t.fraction > 1e-3 && t.fraction < 1.0 - 1e-3;
-    t.crossed = lo < temperature && temperature < hi;
-    if (t.ends_inside || t.crossed)
-      out.push_back(t);
+    if (temperature > 0.0 && latent > 0.0) // share: the term's energy over its heat
+      add(temperature, latent,
+          std::clamp(term->evaluate(final_temperature).energy / latent, 0.0, 1.0));
   }
-  // Phase changes of a card with phases: the transformed share is the weight of
-  // the phase above the boundary.
+  // Phase changes of a card with phases: the share is the weight of the phase
+  // above the boundary.
   const auto& layout = body.material->data().phase_layout;
   if (!layout)
     return out;
   const PhaseLayout::Weight w = layout->weight(final_temperature);
   const auto& boundaries = layout->boundaries();
-  for (std::size_t i = 0; i < boundaries.size(); ++i) {
-    if (!(boundaries[i].latent_heat > 0.0))
-      continue;
-    TransitionPassage t;
-    t.temperature = boundaries[i].temperature;
-    t.latent_heat = boundaries[i].latent_heat / body.material->molar_mass();
-    t.fraction = w.phase > i ? 1.0 : w.phase == i ? w.s : 0.0;
-    t.ends_inside = t.fraction > 1e-3 && t.fraction < 1.0 - 1e-3;
-    t.crossed = lo < t.temperature && t.temperature < hi;
-    if (t.ends_inside || t.crossed)
-      out.push_back(t);
-  }
+  for (std::size_t i = 0; i < boundaries.size(); ++i)
+    if (boundaries[i].latent_heat > 0.0)
+      add(boundaries[i].temperature, boundaries[i].latent_heat,
+          w.phase > i    ? 1.0
+          : w.phase == i ? w.s
+                         : 0.0);
   return out;
 }
 

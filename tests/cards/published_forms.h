@@ -47,6 +47,22 @@ inline double nist_log_polynomial(const double (&a)[9], double t) {
 }
 
 /**
+ * int_{t0}^{t1} y dT of a NIST cryogenic correlation y(T) (for c_p: H(t1) - H(t0)),
+ * by composite Simpson in ln T with 4000 intervals (dH = c T d(ln T)).
+ */
+inline double nist_log_polynomial_integral(const double (&a)[9], double t0, double t1) {
+  const int n = 4000; // even
+  const double u0 = std::log(t0), h = (std::log(t1) - u0) / n;
+  double sum = 0.0;
+  for (int i = 0; i <= n; ++i) {
+    const double t = std::exp(u0 + i * h);
+    const double w = (i == 0 || i == n) ? 1.0 : (i % 2 ? 4.0 : 2.0);
+    sum += w * nist_log_polynomial(a, t) * t;
+  }
+  return sum * h / 3.0;
+}
+
+/**
  * The magnetic capacity of the SGTE form G_mag = R T ln(beta + 1) g(tau) (Hillert
  * and Jarl 1978; Dinsdale 1991), J/mol/K, written out independently of lib/models.
  */

@@ -43,17 +43,9 @@ constexpr double kNistCp[9] = {46.6467,  -314.292, 866.662,  -1298.3, 1162.27,
 constexpr double kNistK[9] = {0.07918,  1.0957,  -0.07277, 0.08084, 0.02803,
                               -0.09464, 0.04179, -0.00571, 0.0}; // W/m/K
 
-// H(t1) - H(t0) of the NIST c_p correlation, J/kg: composite Simpson in ln T.
+// H(t1) - H(t0) of the NIST c_p correlation, J/kg.
 double nist_enthalpy(double t0, double t1) {
-  const int n = 4000; // even
-  const double u0 = std::log(t0), h = (std::log(t1) - u0) / n;
-  double sum = 0.0;
-  for (int i = 0; i <= n; ++i) {
-    const double t = std::exp(u0 + i * h);
-    const double w = (i == 0 || i == n) ? 1.0 : (i % 2 ? 4.0 : 2.0);
-    sum += w * nist_log_polynomial(kNistCp, t) * t; // dH = c dT = c T d(ln T)
-  }
-  return sum * h / 3.0;
+  return quantacal::test::nist_log_polynomial_integral(kNistCp, t0, t1);
 }
 
 // NIST Chemistry WebBook Shomate fit of NIST-JANAF, aluminium solid, 298-933 K:

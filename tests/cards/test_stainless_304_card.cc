@@ -52,17 +52,9 @@ constexpr double kNistCp[9] = {22.0061,   -127.5528, 303.647,   -381.0098, 274.0
 constexpr double kNistK[9] = {-1.4087, 1.3982,  0.2543, -0.6260, 0.2334,
                               0.4256,  -0.4658, 0.1650, -0.0199}; // W/m/K
 
-// H(t1) - H(t0) of the NIST c_p correlation, J/kg: composite Simpson in ln T.
+// H(t1) - H(t0) of the NIST c_p correlation, J/kg.
 double nist_enthalpy(double t0, double t1) {
-  const int n = 4000; // even
-  const double u0 = std::log(t0), h = (std::log(t1) - u0) / n;
-  double sum = 0.0;
-  for (int i = 0; i <= n; ++i) {
-    const double t = std::exp(u0 + i * h);
-    const double w = (i == 0 || i == n) ? 1.0 : (i % 2 ? 4.0 : 2.0);
-    sum += w * nist_log_polynomial(kNistCp, t) * t; // dH = c dT = c T d(ln T)
-  }
-  return sum * h / 3.0;
+  return quantacal::test::nist_log_polynomial_integral(kNistCp, t0, t1);
 }
 
 // Kim (ANL-75-55, 1975), 304L, converted with 1 cal = 4.184 J.
