@@ -317,16 +317,17 @@ TEST(MaterialFieldSelection, OutOfRangeThrowsTheMaterialsErrorForEverySelection)
   const MaterialPtr m = load_card(reference::source_root() + "/materials/aluminium.yaml");
   const MaterialField<2> field({{0, m}});
   const double nan = std::numeric_limits<double>::quiet_NaN();
-  // The card's range is read from it (100 K to its upper end): the test is about the
-  // field's error, not the card's range.
+  // The card's range is read from it: the test is about the field's error, not the
+  // card's range.
+  const double below = 0.5 * m->lower_temperature();
   const double above = m->upper_temperature() + 1.0;
-  const std::string range =
-      "100 K <= T <= " + format_double(m->upper_temperature()) + " K";
-  const std::vector<std::vector<double>> bad{{300.0, 99.0, 400.0, 1000.0},
-                                             {300.0, above, 2.0, 500.0},
+  const std::string range = format_double(m->lower_temperature()) +
+                            " K <= T <= " + format_double(m->upper_temperature()) + " K";
+  const std::vector<std::vector<double>> bad{{300.0, below, 400.0, 1000.0},
+                                             {300.0, above, 0.5 * below, 500.0},
                                              {nan, 300.0, 400.0, 500.0},
                                              {300.0, 400.0, 500.0, -1.0}};
-  const std::vector<double> first_bad{99.0, above, nan, -1.0};
+  const std::vector<double> first_bad{below, above, nan, -1.0};
   for (std::size_t b = 0; b < bad.size(); ++b)
     for (const PropertyFlags s :
          {fe::property_all, fe::property_thermal, fe::property_conduction,
