@@ -19,6 +19,7 @@
 #include <quantacal/models/metal_conductivity.h>
 #include <quantacal/models/thermal_model.h>
 #include <quantacal/models/thermal_state.h>
+#include <quantacal/tables/conductivity_table.h>
 #include <quantacal/tables/property_table.h>
 #include <quantacal/version.h>
 

@@ -169,7 +169,8 @@ int run_table(const std::vector<std::string>& args) {
   for (const double t : row_temperatures(from, to, step)) {
     const ThermalState state =
         exact ? material->thermal_exact(t, basis) : material->thermal(t, basis);
-    const ConductivityValue k = material->conductivity(t);
+    const ConductivityValue k =
+        exact ? material->conductivity_exact(t) : material->conductivity(t);
     out += format_double(t);
     out += ',';
     out += format_double(state.capacity);

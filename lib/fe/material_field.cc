@@ -26,8 +26,12 @@ MaterialField<dim>::MaterialField(
       throw std::invalid_argument("quantacal::fe::MaterialField: material id " +
                                   std::to_string(static_cast<unsigned>(id)) +
                                   " has no material");
-    Entry e{m, m->basis_factor(Basis::volume), m->lower_temperature(),
-            m->upper_temperature(), m->shared_table()};
+    Entry e{m,
+            m->basis_factor(Basis::volume),
+            m->lower_temperature(),
+            m->upper_temperature(),
+            m->shared_table(),
+            m->shared_conductivity_table()};
     // The table applies the same range rule (lower <= T <= upper, NaN rejected) in its
     // batch, vectorised. When its range is the material's (always, for a Material: the
     // table is built over the valid range), that check is the only one on the hot path.
@@ -132,14 +136,14 @@ void MaterialField<dim>::evaluate_conduction(const Entry& material,
                          contains(flags, property_conductivity_derivative), count);
   if (!conductivity && !slope)
     return;
-  // the model directly: Material::conductivity would check the range a second time
-  const ConductivityModel& model = material.material->conductivity_model();
-  for (std::size_t q = 0; q < count; ++q) {
-    const ConductivityValue value = model.evaluate(temperatures[q]);
-    if (conductivity)
-      conductivity[q] = value.value;
-    if (slope)
-      slope[q] = value.derivative;
+  // one batch call of the conductivity table (O(1) lookup, no log, exp or search);
+  // Material::conductivity reads the same table, so the values are the same bit for
+  // bit. Its range is the valid range, so its own check is the range check.
+  try {
+    material.conductivity_table->evaluate(temperatures, count, conductivity, slope);
+  } catch (const RangeError&) {
+    check_range(material, temperatures, count); // the material's message
+    throw;
   }
 }
 
@@ -163,7 +167,8 @@ void MaterialField<dim>::evaluate(dealii::types::material_id id,
     out.energy.clear();
     out.capacity.clear();
     out.capacity_derivative.clear();
-    check_range(material, points, count);
+    if ((flags & property_conduction) == property_none)
+      check_range(material, points, count); // else the conductivity table checks it
   }
   evaluate_conduction(material, points, count, out, flags);
 }
@@ -180,8 +185,7 @@ VectorizedProperties<double> MaterialField<dim>::evaluate(
     const double t = temperature[l];
     e.material->check_temperature(t, "quantacal::fe::MaterialField::evaluate");
     const ThermalState s = e.table->evaluate(t);
-    // the model directly: the range was checked above
-    const ConductivityValue k = e.material->conductivity_model().evaluate(t);
+    const ConductivityValue k = e.conductivity_table->evaluate(t);
     out.energy[l] = e.volume_factor * (s.energy - e.material->energy_offset());
     out.capacity[l] = e.volume_factor * s.capacity;
     out.capacity_derivative[l] = e.volume_factor * s.capacity_derivative;

@@ -82,6 +82,19 @@ const PropertyTable& Material::table() const {
   return *shared_table();
 }
 
+ConductivityTablePtr Material::shared_conductivity_table() const {
+  // the same pattern as the table: one build, every other caller waits for it
+  std::call_once(conductivity_table_once_, [this] {
+    conductivity_table_ =
+        ConductivityTable::build(*data_.conductivity, data_.name, data_.table_options);
+  });
+  return conductivity_table_;
+}
+
+const ConductivityTable& Material::conductivity_table() const {
+  return *shared_conductivity_table();
+}
+
 void Material::check_temperature(double temperature, const char* function) const {
   if (!(std::isfinite(temperature) && temperature >= data_.lower_temperature &&
         temperature <= data_.upper_temperature))
@@ -149,18 +162,16 @@ void Material::conductivity(const double* temperatures, std::size_t n,
                             double* conductivity, double* derivative) const {
   for (std::size_t i = 0; i < n; ++i)
     check_temperature(temperatures[i], "quantacal::Material::conductivity");
-  const ConductivityModel& model = *data_.conductivity;
-  for (std::size_t i = 0; i < n; ++i) {
-    const ConductivityValue k = model.evaluate(temperatures[i]);
-    if (conductivity)
-      conductivity[i] = k.value;
-    if (derivative)
-      derivative[i] = k.derivative;
-  }
+  conductivity_table().evaluate(temperatures, n, conductivity, derivative);
 }
 
 ConductivityValue Material::conductivity(double temperature) const {
   check_temperature(temperature, "quantacal::Material::conductivity");
+  return conductivity_table().evaluate(temperature);
+}
+
+ConductivityValue Material::conductivity_exact(double temperature) const {
+  check_temperature(temperature, "quantacal::Material::conductivity_exact");
   return data_.conductivity->evaluate(temperature);
 }
 

@@ -81,6 +81,8 @@ public:
     return {k, k * slope / t};
   }
   std::string kind() const override { return "table"; }
+  // ln k is a cubic in ln T between knots; its second derivative jumps at them
+  std::vector<double> breakpoints() const override { return t_; }
 
 private:
   std::vector<double> t_, k_; // as given

@@ -7,6 +7,7 @@
 #include <quantacal/models/heat_capacity_model.h>
 #include <quantacal/models/phases.h>
 
+#include <algorithm>
 #include <cmath>
 #include <cstdio>
 #include <limits>
@@ -144,6 +145,22 @@ public:
   PhaseConductivity(std::vector<ConductivityPtr> phases, PhaseLayout layout)
       : phases_(std::move(phases)), layout_(std::move(layout)) {}
   std::string kind() const override { return "phases"; }
+  // Each phase's own breakpoints inside the region where it is evaluated, and both
+  // ends of every join (the smooth step's third derivative jumps there), as the
+  // phase sequence of the heat capacity lists them.
+  std::vector<double> breakpoints() const override {
+    std::vector<double> points;
+    for (std::size_t i = 0; i < phases_.size(); ++i)
+      for (double p : phases_[i]->breakpoints())
+        if (p > layout_.phase_lower(i) && p < layout_.phase_upper(i))
+          points.push_back(p);
+    for (const PhaseBoundary& b : layout_.boundaries()) {
+      points.push_back(b.temperature - 0.5 * b.width);
+      points.push_back(b.temperature + 0.5 * b.width);
+    }
+    std::sort(points.begin(), points.end());
+    return points;
+  }
   ConductivityValue evaluate(double t) const override {
     const PhaseLayout::Weight w = layout_.weight(t);
     const ConductivityValue a = phases_[w.phase]->evaluate(t);

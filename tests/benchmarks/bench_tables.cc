@@ -4,7 +4,9 @@
 //   (b) the exact model (HeatCapacityModel debye + electronic; the bundled copper card),
 //   (c) GSL's gsl_sf_debye_3 computing the same three values,
 //   (d) Boost.Math cubic_hermite on the table's own nodes,
-// and the table's memory per material. Every benchmark reports ns_per_point;
+// and the table's memory per material; and per point k and dk/dT of two bundled
+// cards through the conductivity model (the path before the conductivity table)
+// and through the cached ConductivityTable. Every benchmark reports ns_per_point;
 // tests/benchmarks/ratios.py turns a JSON run into the ratios of docs/performance.md.
 // Not a test: nothing is asserted here.
 #include "reference_models.h"
@@ -20,8 +22,11 @@
 #include <benchmark/benchmark.h>
 #include <boost/math/interpolators/cubic_hermite.hpp>
 
+#include <algorithm>
+#include <map>
 #include <memory>
 #include <random>
+#include <string>
 #include <vector>
 
 namespace {
@@ -201,6 +206,100 @@ void BM_CardExactModel(benchmark::State& state) {
 }
 BENCHMARK(BM_CardTableBatch);
 BENCHMARK(BM_CardExactModel);
+
+// k and dk/dT, 4096 random temperatures over the card's valid range: aluminium
+// (phases: solid and liquid log-log tables joined over the melt) and copper_rrr
+// (metal model: Bloch-Grueneisen series). "Model" is the conductivity model called
+// per point, what MaterialField did before the table; "TableCell8" is the table's
+// batch called on 8 points at a time, as MaterialField calls it for a 3D Q1 cell.
+const quantacal::Material* card(const char* file) {
+  static std::map<std::string, quantacal::MaterialPtr> cards;
+  auto& m = cards[file];
+  if (!m)
+    m = quantacal::load_card(std::string(QUANTACAL_SOURCE_DIR "/materials/") + file);
+  return m.get();
+}
+std::vector<double> card_temperatures(const quantacal::Material& m) {
+  return temperatures(m.lower_temperature(), m.upper_temperature());
+}
+void conductivity_model(benchmark::State& state, const char* file) {
+  const quantacal::Material& m = *card(file);
+  const quantacal::ConductivityModel& model = m.conductivity_model();
+  const auto t = card_temperatures(m);
+  std::vector<double> k(t.size()), dk(t.size());
+  for (auto _ : state) {
+    for (std::size_t i = 0; i < t.size(); ++i) {
+      const quantacal::ConductivityValue v = model.evaluate(t[i]);
+      k[i] = v.value;
+      dk[i] = v.derivative;
+    }
+    benchmark::DoNotOptimize(k.data());
+    benchmark::DoNotOptimize(dk.data());
+    benchmark::ClobberMemory();
+  }
+  per_point(state);
+}
+void conductivity_table_scalar(benchmark::State& state, const char* file) {
+  const quantacal::Material& m = *card(file);
+  const quantacal::ConductivityTable& table = m.conductivity_table();
+  const auto t = card_temperatures(m);
+  std::vector<double> k(t.size()), dk(t.size());
+  for (auto _ : state) {
+    for (std::size_t i = 0; i < t.size(); ++i) {
+      const quantacal::ConductivityValue v = table.evaluate(t[i]);
+      k[i] = v.value;
+      dk[i] = v.derivative;
+    }
+    benchmark::DoNotOptimize(k.data());
+    benchmark::DoNotOptimize(dk.data());
+    benchmark::ClobberMemory();
+  }
+  per_point(state);
+  state.counters["bytes"] = double(table.statistics().bytes);
+  state.counters["segments"] = double(table.statistics().n_segments);
+}
+void conductivity_table_batch(benchmark::State& state, const char* file,
+                              std::size_t batch) {
+  const quantacal::Material& m = *card(file);
+  const quantacal::ConductivityTable& table = m.conductivity_table();
+  const auto t = card_temperatures(m);
+  std::vector<double> k(t.size()), dk(t.size());
+  for (auto _ : state) {
+    for (std::size_t i = 0; i < t.size(); i += batch)
+      table.evaluate(t.data() + i, std::min(batch, t.size() - i), k.data() + i,
+                     dk.data() + i);
+    benchmark::DoNotOptimize(k.data());
+    benchmark::DoNotOptimize(dk.data());
+    benchmark::ClobberMemory();
+  }
+  per_point(state);
+  state.counters["bytes"] = double(table.statistics().bytes);
+  state.counters["segments"] = double(table.statistics().n_segments);
+}
+void BM_CardConductivityModel(benchmark::State& state) {
+  conductivity_model(state, "aluminium.yaml");
+}
+void BM_CardConductivityTableScalar(benchmark::State& state) {
+  conductivity_table_scalar(state, "aluminium.yaml");
+}
+void BM_CardConductivityTableCell8(benchmark::State& state) {
+  conductivity_table_batch(state, "aluminium.yaml", 8);
+}
+void BM_CardConductivityTableBatch(benchmark::State& state) {
+  conductivity_table_batch(state, "aluminium.yaml", n_points);
+}
+void BM_MetalConductivityModel(benchmark::State& state) {
+  conductivity_model(state, "copper_rrr.yaml");
+}
+void BM_MetalConductivityTableCell8(benchmark::State& state) {
+  conductivity_table_batch(state, "copper_rrr.yaml", 8);
+}
+BENCHMARK(BM_CardConductivityModel);
+BENCHMARK(BM_CardConductivityTableScalar);
+BENCHMARK(BM_CardConductivityTableCell8);
+BENCHMARK(BM_CardConductivityTableBatch);
+BENCHMARK(BM_MetalConductivityModel);
+BENCHMARK(BM_MetalConductivityTableCell8);
 #endif
 
 } // namespace

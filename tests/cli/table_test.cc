@@ -100,7 +100,7 @@ TEST(Table, ExactAndTableAgree) {
     ASSERT_EQ(t[i][0], e[i][0]);
     worst = std::max(worst, std::abs(t[i][1] - e[i][1]) / std::abs(e[i][1]));
     EXPECT_NEAR(t[i][2], e[i][2], 1e-8 * std::abs(e[i][2]) + 1e-12) << "T = " << t[i][0];
-    EXPECT_EQ(t[i][3], e[i][3]); // conductivity does not come from the table
+    EXPECT_EQ(t[i][3], e[i][3]); // a constant conductivity is not tabulated
   }
   EXPECT_LT(worst, 1e-8);
 }

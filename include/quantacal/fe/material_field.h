@@ -35,8 +35,9 @@
  * threads; what each thread needs of its own is the output: keep the
  * PointProperties (and the temperature buffer) in the per-thread scratch
  * object, as deal.II keeps FEValues there. The constructor builds the cached
- * table of every material before the first assembly, so no thread waits for
- * (or races) a build; Material::table() is itself built once under
+ * table and the conductivity table of every material before the first
+ * assembly, so no thread waits for (or races) a build; Material::table() and
+ * Material::conductivity_table() are themselves built once under
  * std::call_once, so a Material used outside a field is thread-safe too.
  * @code
  *   using namespace quantacal::fe;
@@ -90,7 +91,8 @@ namespace quantacal::fe {
  * with `|` (the way deal.II's UpdateFlags are).
  *
  * The three thermal properties come from one batch call of the material's
- * cached table, the two conduction properties from its conductivity model;
+ * cached table, the two conduction properties from one batch call of its
+ * cached conductivity table (Material::conductivity_table());
  * a call that names no flag of a group skips that group's work entirely.
  */
 enum PropertyFlags : unsigned int {
@@ -174,12 +176,12 @@ public:
   MaterialField() = default;
 
   /**
-   * Builds the cached table of every material that has not built it yet, so
-   * that evaluation never waits for a build.
+   * Builds the cached table and the conductivity table of every material that
+   * has not built them yet, so that evaluation never waits for a build.
    * @param materials material id -> material (each non-null)
    * @throws std::invalid_argument for a null material
-   * @throws NumericalError if a material's table cannot be built (see
-   * PropertyTable::build)
+   * @throws NumericalError if a material's table or conductivity table cannot be
+   * built (see PropertyTable::build, ConductivityTable::build)
    */
   explicit MaterialField(std::map<dealii::types::material_id, MaterialPtr> materials);
 
@@ -264,6 +266,8 @@ private:
     double lower_temperature = 0.0; ///< the material's valid range, K
     double upper_temperature = 0.0; ///< K
     TablePtr table; ///< the material's cached table (built at construction)
+    /// the material's cached conductivity table (built at construction)
+    ConductivityTablePtr conductivity_table;
     /// the table's range is the valid range, so the table's own check is the range check
     bool table_checks_range = false;
   };
@@ -274,7 +278,7 @@ private:
   static void evaluate_thermal(const Entry& material, const double* temperatures,
                                std::size_t count, PointProperties& out,
                                PropertyFlags flags);
-  /** The conduction properties of @p flags, from the conductivity model. */
+  /** The conduction properties of @p flags, from the conductivity table. */
   static void evaluate_conduction(const Entry& material, const double* temperatures,
                                   std::size_t count, PointProperties& out,
                                   PropertyFlags flags);

@@ -10,6 +10,7 @@
 #include <quantacal/models/conductivity.h>
 #include <quantacal/models/heat_capacity_model.h>
 #include <quantacal/models/phases.h>
+#include <quantacal/tables/conductivity_table.h>
 #include <quantacal/tables/property_table.h>
 
 #include <cstddef>
@@ -79,8 +80,9 @@ struct MaterialData {
  * A material as a solver sees it.
  *
  * Energies are relative to the reference temperature (0 K by default).
- * The table is built on first use under std::call_once, so a Material may be
- * shared between threads from the moment it is made. All temperatures are
+ * The table (and the conductivity table) is built on first use under
+ * std::call_once, so a Material may be shared between threads from the moment
+ * it is made. All temperatures are
  * checked against the valid range; outside it a RangeError names the material.
  */
 class Material {
@@ -109,6 +111,15 @@ public:
   const PropertyTable& table() const;
   /** Shared handle of the same table. */
   TablePtr shared_table() const;
+
+  /**
+   * The cached conductivity table (k and dk/dT over the valid range, to the
+   * relative tolerance of the table options), built on first call under its own
+   * std::call_once; thread-safe. conductivity() reads it.
+   */
+  const ConductivityTable& conductivity_table() const;
+  /** Shared handle of the same conductivity table. */
+  ConductivityTablePtr shared_conductivity_table() const;
 
   /**
    * Thermal state from the table on @p basis, energy relative to the reference
@@ -146,12 +157,19 @@ public:
    */
   double temperature_from_energy(double energy, Basis basis = Basis::mass) const;
 
-  /** k (W/m/K) and dk/dT at @p temperature; RangeError outside the valid range. */
+  /**
+   * k (W/m/K) and dk/dT at @p temperature from the conductivity table (dk/dT is
+   * the exact derivative of the tabulated k); RangeError outside the valid range.
+   */
   ConductivityValue conductivity(double temperature) const;
 
+  /** Same from the conductivity model (for checks, fits and `--exact`). */
+  ConductivityValue conductivity_exact(double temperature) const;
+
   /**
-   * Batch conductivity: k (W/m/K) and dk/dT (W/m/K^2) at n temperatures; output
-   * arrays may be null to skip them.
+   * Batch conductivity from the conductivity table: k (W/m/K) and dk/dT (W/m/K^2)
+   * at n temperatures, the same numbers as conductivity(T) point by point, bit for
+   * bit; output arrays may be null to skip them.
    * @throws RangeError naming the first temperature outside the valid range
    */
   void conductivity(const double* temperatures, std::size_t n, double* conductivity,
@@ -178,6 +196,8 @@ private:
   double energy_offset_ = 0.0;
   mutable std::once_flag table_once_;
   mutable TablePtr table_;
+  mutable std::once_flag conductivity_table_once_;
+  mutable ConductivityTablePtr conductivity_table_;
 };
 
 using MaterialPtr = std::shared_ptr<const Material>;

@@ -30,6 +30,13 @@ public:
   virtual ConductivityValue evaluate(double temperature) const = 0;
   /** Kind as written in cards ("constant", "table", ...). */
   virtual std::string kind() const = 0;
+  /**
+   * Temperatures (K) where k or one of its first two derivatives is not smooth:
+   * the knots of a table, the ends of a phase join. A ConductivityTable places
+   * nodes on them (as a PropertyTable does on ThermalModel::breakpoints()).
+   * Ascending or not, may lie outside any valid range; empty for a smooth model.
+   */
+  virtual std::vector<double> breakpoints() const { return {}; }
 };
 
 using ConductivityPtr = std::shared_ptr<const ConductivityModel>;
