@@ -1,12 +1,11 @@
 // SPDX-License-Identifier: Apache-2.0
-// Newton's method for one implicit stage (see newton.h).
+// Newton's method for one implicit stage, with a kept Jacobian (see newton.h).
 #include "newton.h"
 
 #include "wall_clock.h"
 
 #include <deal.II/lac/solver_control.h>
 #include <deal.II/lac/solver_gmres.h>
-#include <deal.II/lac/trilinos_precondition.h>
 
 #include <algorithm>
 #include <cmath>
@@ -15,6 +14,25 @@
 namespace quantacal::solver::detail {
 
 using namespace dealii;
+
+namespace {
+
+/// A kept Jacobian is rebuilt when an iteration reduces the residual by less than
+/// this factor (a fresh Newton step near the solution reduces it far more; 0.05
+/// was the fastest of 0.2, 0.05, 0.01 and 0 on the cases of docs/performance.md).
+constexpr double slow_contraction = 0.05;
+/// ... or when the stage's beta h differs from the one it was built with by more
+/// than this fraction (a new step size)
+constexpr double beta_h_change = 0.25;
+/// ... or when GMRES needs more than this many times the iterations of the first
+/// solve with it, plus linear_slack (its AMG no longer fits the matrix)
+constexpr double linear_growth = 2.0;
+constexpr unsigned int linear_slack = 10;
+/// each linear solve reduces the residual by this factor (inexact Newton, Eisenstat
+/// and Walker, SIAM J. Sci. Comput. 17 (1996) 16), or to a tenth of Newton's target
+constexpr double forcing = 1e-3;
+
+} // namespace
 
 template <int dim>
 StageSolver<dim>::StageSolver(const CaseDescription& description,
@@ -28,19 +46,23 @@ StageSolver<dim>::StageSolver(const CaseDescription& description,
       update_(discretization.owned_vector()), trial_(discretization.owned_vector()),
       scale_vector_(discretization.owned_vector()) {}
 
-// The residual R = M(T) - known - beta h F(T) at @p temperature (with the Jacobian),
-// its norm over the free rows, the scale of the stage (its change of stored energy)
-// and the round-off floor of both.
+// The residual R = M(T) - known - beta h F(T) at @p temperature (with the Jacobian if
+// asked), its norm over the free rows, the scale of the stage (its change of stored
+// energy) and the round-off floor of both.
 template <int dim>
 typename StageSolver<dim>::Evaluation
 StageSolver<dim>::evaluate(const Vector& temperature, const Stage& stage,
-                           const Vector& start_energy) {
+                           const Vector& start_energy, bool with_jacobian) {
   const auto start = Clock::now();
   ghosted_ = temperature;
   Evaluation evaluation;
-  evaluation.sums =
-      assembler_.assemble(ghosted_, stage.time, stage.beta_h,
-                          stage.capacity_reference ? &reference_ghosted_ : nullptr, true);
+  if (with_jacobian)
+    have_jacobian_ = false; // overwritten from here on, valid once built
+  evaluation.sums = assembler_.assemble(
+      ghosted_, stage.time, stage.beta_h,
+      stage.capacity_reference ? &reference_ghosted_ : nullptr, with_jacobian);
+  ++(with_jacobian ? counters_.steps.n_jacobian_assemblies
+                   : counters_.steps.n_residual_assemblies);
   const Vector& stored = assembler_.stored_energy();
   const Vector& flow = assembler_.heat_flow();
   residual_ = stored;
@@ -59,31 +81,50 @@ StageSolver<dim>::evaluate(const Vector& temperature, const Stage& stage,
   evaluation.floor = 1e-14 * (stored.l2_norm() + assembler_.absolute_energy().l2_norm() +
                               stage.beta_h * flow.l2_norm());
   counters_.timings.assembly += seconds_since(start);
+  if (with_jacobian)
+    build_preconditioner(stage.beta_h);
   return evaluation;
 }
 
-// J update = -R on the free rows, by GMRES with ML AMG, to a tolerance relative to
-// the residual (not below what Newton's target needs).
 template <int dim>
-void StageSolver<dim>::solve_linear(double residual_norm, double target) {
+void StageSolver<dim>::build_preconditioner(double beta_h) {
   const auto start = Clock::now();
-  Vector rhs(free_residual_);
-  rhs *= -1.0;
-  update_ = 0;
-  const double tolerance = std::min(
-      1e-4 * residual_norm,
-      std::max(description_.solver.linear_tolerance * residual_norm, 0.1 * target));
-  SolverControl control(2000, std::max(tolerance, 1e-300));
-  TrilinosWrappers::PreconditionAMG amg;
   TrilinosWrappers::PreconditionAMG::AdditionalData amg_data;
   amg_data.elliptic = true;
   amg_data.higher_order_elements = discretization_.fe.degree > 1;
   amg_data.smoother_sweeps = 2;
   amg_data.aggregation_threshold = 0.02;
-  amg.initialize(discretization_.jacobian, amg_data);
-  SolverGMRES<Vector> gmres(control, SolverGMRES<Vector>::AdditionalData(60));
+  amg_.initialize(discretization_.jacobian, amg_data);
+  have_jacobian_ = true;
+  jacobian_beta_h_ = beta_h;
+  first_solve_since_build_ = true;
+  counters_.timings.preconditioner += seconds_since(start);
+}
+
+template <int dim>
+bool StageSolver<dim>::jacobian_unfit_for(double beta_h) const {
+  return !have_jacobian_ ||
+         std::abs(beta_h - jacobian_beta_h_) > beta_h_change * jacobian_beta_h_;
+}
+
+// J update = -R on the free rows, by GMRES with the kept AMG, to the forcing factor
+// times the residual (not below what Newton's target needs, nor below the case's
+// linear tolerance).
+template <int dim>
+unsigned int StageSolver<dim>::solve_linear(double residual_norm, double target) {
+  const auto start = Clock::now();
+  Vector rhs(free_residual_);
+  rhs *= -1.0;
+  update_ = 0;
+  const double tolerance = std::max(description_.solver.linear_tolerance * residual_norm,
+                                    std::min(forcing * residual_norm, 0.1 * target));
+  SolverControl control(2000, std::max(tolerance, 1e-300));
+  // right preconditioning: the tolerance bounds the true residual, not the
+  // preconditioned one
+  SolverGMRES<Vector>::AdditionalData gmres_data(60, true);
+  SolverGMRES<Vector> gmres(control, gmres_data);
   try {
-    gmres.solve(discretization_.jacobian, update_, rhs, amg);
+    gmres.solve(discretization_.jacobian, update_, rhs, amg_);
   } catch (const std::exception&) {
     counters_.steps.n_linear_iterations += control.last_step();
     counters_.timings.linear_solve += seconds_since(start);
@@ -91,14 +132,16 @@ void StageSolver<dim>::solve_linear(double residual_norm, double target) {
         std::string("the linear solver failed: ") +
         (control.last_value() == control.last_value() ? "no convergence" : "NaN")};
   }
-  counters_.steps.n_linear_iterations += control.last_step();
+  const unsigned int iterations = control.last_step();
+  counters_.steps.n_linear_iterations += iterations;
   counters_.timings.linear_solve += seconds_since(start);
   for (const auto& [i, b] : discretization_.fixed_dofs)
     update_[i] = 0.0;
   update_.compress(VectorOperation::insert);
+  return iterations;
 }
 
-// Backtracking: the first of the step lengths 1, 1/2, ..., 1/16 that does not raise
+// Backtracking: the first of the step lengths 1/2, ..., 1/16 that does not raise
 // the residual (the last one is taken whatever it gives, as is any step once the
 // update is at round-off level or the residual meets the target).
 template <int dim>
@@ -107,13 +150,13 @@ StageSolver<dim>::line_search(Vector& temperature, const Stage& stage,
                               const Vector& start_energy, double norm,
                               bool roundoff_update) {
   const double tolerance = description_.solver.newton_tolerance;
-  double alpha = 1.0;
+  double alpha = 0.5;
   std::string last_problem;
-  for (int attempt = 0; attempt < 5; ++attempt) {
+  for (int attempt = 1; attempt < 5; ++attempt) {
     trial_ = temperature;
     trial_.add(alpha, update_);
     try {
-      const Evaluation evaluation = evaluate(trial_, stage, start_energy);
+      const Evaluation evaluation = evaluate(trial_, stage, start_energy, false);
       if (std::isfinite(evaluation.norm) &&
           (evaluation.norm < norm || attempt == 4 || roundoff_update ||
            evaluation.norm <= tolerance * evaluation.scale + evaluation.floor)) {
@@ -131,19 +174,29 @@ StageSolver<dim>::line_search(Vector& temperature, const Stage& stage,
 template <int dim>
 StageResult StageSolver<dim>::solve(Vector& temperature, const Stage& stage,
                                     Vector& stored_energy, Vector& heat_flow) {
+  try {
+    return iterate(temperature, stage, stored_energy, heat_flow);
+  } catch (const StageFailure&) {
+    have_jacobian_ = false; // it may have been built at a failing state
+    throw;
+  }
+}
+
+template <int dim>
+StageResult StageSolver<dim>::iterate(Vector& temperature, const Stage& stage,
+                                      Vector& stored_energy, Vector& heat_flow) {
   if (stage.capacity_reference)
     reference_ghosted_ = *stage.capacity_reference;
   discretization_.apply_fixed_temperatures(temperature, description_, stage.time);
-  Evaluation current = evaluate(temperature, stage, stored_energy);
+  bool fresh = jacobian_unfit_for(stage.beta_h);
+  Evaluation current = evaluate(temperature, stage, stored_energy, fresh);
   const unsigned int max_iterations = description_.solver.max_newton_iterations;
   for (unsigned int it = 0;; ++it) {
     if (!std::isfinite(current.norm))
       throw StageFailure{"the residual is not finite (NaN or inf)"};
     const double target =
         description_.solver.newton_tolerance * current.scale + current.floor;
-    if (current.norm <= target && it > 0)
-      break;
-    if (current.norm <= 1e-300)
+    if (current.norm <= target || current.norm <= 1e-300)
       break;
     if (it >= max_iterations) {
       std::ostringstream message;
@@ -151,13 +204,51 @@ StageResult StageSolver<dim>::solve(Vector& temperature, const Stage& stage,
               << " iterations (residual " << current.norm << ", target " << target << ")";
       throw StageFailure{message.str()};
     }
-    solve_linear(current.norm, target);
+    if (!fresh && jacobian_unfit_for(stage.beta_h)) { // marked stale below
+      current = evaluate(temperature, stage, stored_energy, true);
+      fresh = true;
+      continue; // the same point: its residual again, now with a new Jacobian
+    }
+    const unsigned int linear = solve_linear(current.norm, target);
     ++counters_.steps.n_newton_iterations;
+    if (first_solve_since_build_) {
+      fresh_linear_iterations_ = linear;
+      first_solve_since_build_ = false;
+    } else if (linear > linear_growth * fresh_linear_iterations_ + linear_slack) {
+      have_jacobian_ = false; // its AMG no longer fits: rebuild at the next iteration
+    }
     // an update at the round-off level of the temperatures: nothing more to gain
     const bool roundoff_update =
         update_.linfty_norm() <= 1e-13 * temperature.linfty_norm();
-    current =
-        line_search(temperature, stage, stored_energy, current.norm, roundoff_update);
+    // the full step first, residual only
+    trial_ = temperature;
+    trial_.add(1.0, update_);
+    Evaluation full;
+    bool full_ok = true;
+    try {
+      full = evaluate(trial_, stage, stored_energy, false);
+    } catch (const StageFailure&) {
+      full_ok = false;
+    }
+    const bool reduced =
+        full_ok && std::isfinite(full.norm) &&
+        (full.norm < current.norm || roundoff_update ||
+         full.norm <= description_.solver.newton_tolerance * full.scale + full.floor);
+    if (reduced) {
+      temperature = trial_;
+      if (!fresh && full.norm > slow_contraction * current.norm)
+        have_jacobian_ = false; // a kept Jacobian that contracts slowly: rebuild
+      current = full;
+    } else if (!fresh) {
+      // a kept Jacobian that does not reduce the residual: rebuild it here and retry
+      current = evaluate(temperature, stage, stored_energy, true);
+      fresh = true;
+      continue;
+    } else {
+      current =
+          line_search(temperature, stage, stored_energy, current.norm, roundoff_update);
+    }
+    fresh = false; // the Jacobian is now older than the iterate
     if (roundoff_update && std::isfinite(current.norm))
       break;
   }

@@ -1,14 +1,19 @@
 // SPDX-License-Identifier: Apache-2.0
 // Internal: the solve of one implicit stage, M(T) - known - beta h F(T) = 0, by
-// Newton's method with the consistent Jacobian (assembly.h). Each linear system
-// is solved by GMRES preconditioned with Trilinos ML AMG (the Jacobian is not
-// symmetric); a step that raises the residual is halved up to four times
-// (backtracking). Convergence is measured against the stage's change of stored
-// energy plus a round-off floor.
+// Newton's method with the consistent Jacobian (assembly.h), kept between
+// iterations, stages and steps while it still contracts the residual fast (a chord
+// method, docs/theory.md "Newton with a kept Jacobian"). Each linear system is
+// solved by GMRES preconditioned with Trilinos ML AMG (the Jacobian is not
+// symmetric), the AMG hierarchy built with the Jacobian. A step that raises the
+// residual makes a kept Jacobian be rebuilt; with a fresh one it is halved up to
+// four times (backtracking). Convergence is measured against the stage's change of
+// stored energy plus a round-off floor.
 #ifndef QUANTACAL_LIB_SOLVER_NEWTON_H
 #define QUANTACAL_LIB_SOLVER_NEWTON_H
 
 #include "assembly.h"
+
+#include <deal.II/lac/trilinos_precondition.h>
 
 namespace quantacal::solver::detail {
 
@@ -45,6 +50,9 @@ public:
   StageResult solve(Vector& temperature, const Stage& stage, Vector& stored_energy,
                     Vector& heat_flow);
 
+  /** Forgets the kept Jacobian (the next stage assembles a new one). */
+  void forget_jacobian() { have_jacobian_ = false; }
+
 private:
   /** A residual evaluation: its norm, its scale and the round-off floor. */
   struct Evaluation {
@@ -55,10 +63,17 @@ private:
   };
 
   Evaluation evaluate(const Vector& temperature, const Stage& stage,
-                      const Vector& start_energy);
-  void solve_linear(double residual_norm, double target);
+                      const Vector& start_energy, bool with_jacobian);
+  /** Builds the AMG hierarchy of the Jacobian just assembled for @p beta_h. */
+  void build_preconditioner(double beta_h);
+  /** True if the kept Jacobian should be rebuilt before a stage with @p beta_h. */
+  bool jacobian_unfit_for(double beta_h) const;
+  /** @return the GMRES iterations taken */
+  unsigned int solve_linear(double residual_norm, double target);
   Evaluation line_search(Vector& temperature, const Stage& stage,
                          const Vector& start_energy, double norm, bool roundoff_update);
+  StageResult iterate(Vector& temperature, const Stage& stage, Vector& stored_energy,
+                      Vector& heat_flow);
 
   const CaseDescription& description_;
   const Discretization<dim>& discretization_;
@@ -66,6 +81,14 @@ private:
   RunResult& counters_; ///< steps.n_newton_iterations, n_linear_iterations, timings
   Vector ghosted_, reference_ghosted_;
   Vector residual_, free_residual_, update_, trial_, scale_vector_;
+
+  // the kept Jacobian (in discretization_.jacobian) and its preconditioner
+  dealii::TrilinosWrappers::PreconditionAMG amg_;
+  bool have_jacobian_ = false;
+  double jacobian_beta_h_ = 0.0; ///< beta h it was assembled with, s
+  /// GMRES iterations of the first solve with it: a rise says it has gone stale
+  unsigned int fresh_linear_iterations_ = 0;
+  bool first_solve_since_build_ = false;
 };
 
 } // namespace quantacal::solver::detail

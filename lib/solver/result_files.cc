@@ -141,12 +141,15 @@ std::string summary_yaml(const CaseDescription& description, const RunResult& re
       << "\n  rejected: " << result.steps.n_rejected
       << "\n  newton_iterations: " << result.steps.n_newton_iterations
       << "\n  linear_iterations: " << result.steps.n_linear_iterations
+      << "\n  jacobian_assemblies: " << result.steps.n_jacobian_assemblies
+      << "\n  residual_assemblies: " << result.steps.n_residual_assemblies
       << "\n  smallest_step_s: " << number(result.steps.smallest_step)
       << "\n  largest_step_s: " << number(result.steps.largest_step) << '\n';
   out << "wall_time_s:\n  setup: " << number(result.timings.setup)
       << "\n  assembly: " << number(result.timings.assembly)
       << "\n  material_evaluation: " << number(result.timings.material_evaluation)
       << "\n  linear_solve: " << number(result.timings.linear_solve)
+      << "\n  preconditioner: " << number(result.timings.preconditioner)
       << "\n  output: " << number(result.timings.output)
       << "\n  total: " << number(result.timings.total) << '\n';
   out << "worst_relative_imbalance: " << number(result.worst_relative_imbalance) << '\n';

@@ -197,8 +197,7 @@ bool CaseRun<dim>::advance(double& time) {
   }
   double error = 0.0;
   if (ok && spec.adaptive) {
-    error = stepper_->error_estimate(plan, control_.previous_step(),
-                                     control_.has_previous_step());
+    error = stepper_->error_estimate(plan);
     if (!std::isfinite(error))
       ok = false, last_failure_ = "non-finite error estimate";
   }

@@ -45,8 +45,15 @@ template <int dim>
 StepHeat TimeStepper<dim>::attempt(const StepPlan& plan) {
   using namespace trbdf2;
   const double h = plan.step;
-  // stage 1: trapezoid to t + gamma h
+  attempted_step_ = h;
+  // stage 1: trapezoid to t + gamma h; guess by linear extrapolation of the last
+  // step (the current level on the first step)
   stage_ = current_;
+  if (has_previous_) {
+    const double ratio = gamma * h / previous_step_;
+    stage_ *= 1.0 + ratio;
+    stage_.add(-ratio, previous_);
+  }
   known_ = current_energy_;
   known_.add(0.5 * gamma * h, current_flow_);
   if (capacity_form_)
@@ -54,11 +61,21 @@ StepHeat TimeStepper<dim>::attempt(const StepPlan& plan) {
   stage_energy_ = current_energy_;
   const Stage trapezoid{plan.stage_time, 0.5 * gamma * h, &known_,
                         capacity_form_ ? &capacity_reference_ : nullptr};
-  const StageResult first = stages_.solve(stage_, trapezoid, stage_energy_, stage_flow_);
-  // stage 2: BDF2 to t + h; guess by linear extrapolation
-  end_ = stage_;
-  end_ *= 1.0 / gamma;
-  end_.add(1.0 - 1.0 / gamma, current_);
+  StageResult first;
+  try {
+    first = stages_.solve(stage_, trapezoid, stage_energy_, stage_flow_);
+  } catch (const StageFailure&) {
+    if (!has_previous_)
+      throw;
+    // the extrapolated guess may leave a material's range: once more from the
+    // current level
+    stage_ = current_;
+    stage_energy_ = current_energy_;
+    first = stages_.solve(stage_, trapezoid, stage_energy_, stage_flow_);
+  }
+  // stage 2: BDF2 to t + h; guess by the quadratic through the previous, current
+  // and stage levels (linear through the last two on the first step)
+  extrapolate_to_end(plan, end_);
   if (!capacity_form_) {
     known_ = stage_energy_;
     known_ *= stage_weight;
@@ -86,32 +103,42 @@ StepHeat TimeStepper<dim>::attempt(const StepPlan& plan) {
                   second.sums, first.reaction, second.reaction};
 }
 
+// The samples at times s0 = -h_prev (previous), s1 = 0 (current), s2 = gamma h
+// (stage), extrapolated to s = h with the Lagrange weights l0, l1, l2 (linear
+// through the current and stage levels when there is no previous step).
 template <int dim>
-double TimeStepper<dim>::error_estimate(const StepPlan& plan, double previous_step,
-                                        bool has_previous_step) const {
-  // the samples at times s0 = -h_prev (previous), s1 = 0 (current), s2 = gamma h
-  // (stage), extrapolated to s = h with the Lagrange weights l0, l1, l2
-  double local = 0.0;
-  const double s0 = -previous_step, s1 = 0.0, s2 = trbdf2::gamma * plan.step,
-               s = plan.step;
-  for (const auto i : discretization_.owned_dofs) {
-    double extrapolated;
-    if (has_previous_step) {
-      const double l0 = (s - s1) * (s - s2) / ((s0 - s1) * (s0 - s2));
-      const double l1 = (s - s0) * (s - s2) / ((s1 - s0) * (s1 - s2));
-      const double l2 = (s - s0) * (s - s1) / ((s2 - s0) * (s2 - s1));
-      extrapolated = l0 * previous_[i] + l1 * current_[i] + l2 * stage_[i];
-    } else {
-      extrapolated = current_[i] + (stage_[i] - current_[i]) / trbdf2::gamma;
-    }
-    local = std::max(local, std::abs(end_[i] - extrapolated));
+void TimeStepper<dim>::extrapolate_to_end(const StepPlan& plan, Vector& out) const {
+  if (!has_previous_) {
+    out = stage_;
+    out *= 1.0 / trbdf2::gamma;
+    out.add(1.0 - 1.0 / trbdf2::gamma, current_);
+    return;
   }
+  const double s0 = -previous_step_, s1 = 0.0, s2 = trbdf2::gamma * plan.step,
+               s = plan.step;
+  const double l0 = (s - s1) * (s - s2) / ((s0 - s1) * (s0 - s2));
+  const double l1 = (s - s0) * (s - s2) / ((s1 - s0) * (s1 - s2));
+  const double l2 = (s - s0) * (s - s1) / ((s2 - s0) * (s2 - s1));
+  out = previous_;
+  out *= l0;
+  out.add(l1, current_, l2, stage_);
+}
+
+template <int dim>
+double TimeStepper<dim>::error_estimate(const StepPlan& plan) const {
+  Vector extrapolated(end_);
+  extrapolate_to_end(plan, extrapolated);
+  double local = 0.0;
+  for (const auto i : discretization_.owned_dofs)
+    local = std::max(local, std::abs(end_[i] - extrapolated[i]));
   return Utilities::MPI::max(local, discretization_.communicator);
 }
 
 template <int dim>
 void TimeStepper<dim>::accept() {
   previous_ = current_;
+  previous_step_ = attempted_step_;
+  has_previous_ = true;
   current_ = end_;
   if (!capacity_form_)
     current_energy_ = end_energy_;

@@ -39,8 +39,7 @@ public:
    * extrapolated to the new time (linear through the current and stage fields when
    * there is no previous step, which overestimates and so starts safely).
    */
-  double error_estimate(const StepPlan& plan, double previous_step,
-                        bool has_previous_step) const;
+  double error_estimate(const StepPlan& plan) const;
 
   /** Makes the attempted step the current level. */
   void accept();
@@ -53,6 +52,9 @@ public:
   const AssembledSums& sums() const { return current_sums_; }
 
 private:
+  /** The quadratic (or linear) extrapolation of error_estimate() into @p out. */
+  void extrapolate_to_end(const StepPlan& plan, Vector& out) const;
+
   const CaseDescription& description_;
   const Discretization<dim>& discretization_;
   StageSolver<dim>& stages_;
@@ -62,6 +64,9 @@ private:
       end_flow_;
   Vector known_, capacity_reference_;
   AssembledSums current_sums_, end_sums_;
+  double attempted_step_ = 0.0; ///< h of the last attempt, s
+  double previous_step_ = 0.0;  ///< h of the last accepted step, s
+  bool has_previous_ = false;   ///< previous_ holds the level before current_
 };
 
 } // namespace quantacal::solver::detail

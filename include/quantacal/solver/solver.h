@@ -69,8 +69,11 @@ struct StepStatistics {
   unsigned int n_rejected = 0; ///< rejected attempts (error, Newton failure, range)
   unsigned int n_newton_iterations = 0; ///< over all stages of all attempts
   unsigned int n_linear_iterations = 0; ///< GMRES iterations, total
-  double smallest_step = 0.0;           ///< s, accepted
-  double largest_step = 0.0;            ///< s, accepted
+  /// assemblies with the Jacobian (each followed by an AMG build)
+  unsigned int n_jacobian_assemblies = 0;
+  unsigned int n_residual_assemblies = 0; ///< assemblies of the residual alone
+  double smallest_step = 0.0;             ///< s, accepted
+  double largest_step = 0.0;              ///< s, accepted
 };
 
 /** Wall-clock seconds by phase (rank 0's clock). */
@@ -78,7 +81,8 @@ struct PhaseTimes {
   double setup = 0.0;
   double assembly = 0.0;
   double material_evaluation = 0.0; ///< part of `assembly`: MaterialField calls
-  double linear_solve = 0.0;
+  double linear_solve = 0.0;        ///< GMRES iterations
+  double preconditioner = 0.0;      ///< building the AMG hierarchy of each Jacobian
   double output = 0.0;
   double total = 0.0;
 };
