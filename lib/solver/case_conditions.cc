@@ -2,6 +2,7 @@
 // Reading the `boundaries` and `sources` of a case file (docs/cases.md).
 #include "case_reader.h"
 
+#include <cmath>
 #include <set>
 
 namespace quantacal::solver::detail {
@@ -37,6 +38,23 @@ BoundarySpec::Convection read_convection(const CaseReader& reader, const YAML::N
       {dimension::temperature(), "a surface temperature",
        dimension::heat_transfer_coefficient(),
        "a heat-transfer coefficient (e.g. \"500 W/m^2/K\")", /*positive_y=*/false});
+  // Every coefficient finite and >= 0: a negative h would pump heat against the
+  // temperature difference. The rows of a table are checked by curve() too; a single
+  // value is checked only here. (NaN and infinity are already refused by the units
+  // parser; the test is kept for values that reach here any other way.)
+  const YAML::Node h = node["h"];
+  for (std::size_t i = 0; i < convection.coefficient.size(); ++i) {
+    const double value = convection.coefficient.y()[i];
+    if (!(value >= 0.0) || !std::isfinite(value)) {
+      if (h.IsScalar())
+        reader.fail(h, field + ".h",
+                    "a heat-transfer coefficient >= 0 W/m^2/K (finite), e.g. \"500 "
+                    "W/m^2/K\"");
+      reader.fail(h[i][1], index_path(field + ".h", i) + "[1]",
+                  "a heat-transfer coefficient >= 0 W/m^2/K (finite), e.g. \"500 "
+                  "W/m^2/K\"");
+    }
+  }
   convection.ambient_temperature =
       reader.temperature(node["ambient"], field + ".ambient");
   return convection;

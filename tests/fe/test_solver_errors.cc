@@ -195,6 +195,146 @@ TEST(SolverErrors, DivergingCaseInProcess) {
   EXPECT_GE(r.steps.n_rejected, c.time.max_rejections);
 }
 
+// ---- values a user would try: each a located error, exit code 2, nothing written ----
+
+/** True if @p dir does not exist or holds nothing. */
+bool nothing_written(const fs::path& dir) {
+  return !fs::exists(dir) || fs::is_empty(dir);
+}
+
+/** A cylinder case whose boundary 0 has @p condition (the lines after `- id: 0`). */
+std::string case_with_condition(const std::string& condition) {
+  return base_case(cylinder_mesh, "boundaries:\n  - id: 0\n" + condition, "out");
+}
+
+// A negative coefficient used to be accepted when given as a single value and run
+// (heat pumped against the temperature difference); a table row was refused.
+TEST(SolverErrors, NegativeHeatTransferCoefficientIsRejected) {
+  const fs::path dir = scratch("negative_h");
+  const Outcome o = run_cli(dir, case_with_condition("    convection: {ambient: \"30 "
+                                                     "degC\", h: \"-2 kW/m^2/K\"}\n"));
+  EXPECT_EQ(o.code, 2) << o.text;
+  EXPECT_NE(o.text.find("case.yaml:14:41: boundaries[0].convection.h = \"-2 kW/m^2/K\": "
+                        "expected a heat-transfer coefficient >= 0 W/m^2/K"),
+            std::string::npos)
+      << o.text;
+  EXPECT_TRUE(nothing_written(dir / "out"));
+}
+
+TEST(SolverErrors, NegativeCoefficientInABoilingTableIsRejected) {
+  const fs::path dir = scratch("negative_h_table");
+  const Outcome o = run_cli(
+      dir, case_with_condition("    convection:\n"
+                               "      ambient: \"30 degC\"\n"
+                               "      h: [[\"40 degC\", \"1 kW/m^2/K\"], [\"100 degC\", "
+                               "\"-3 kW/m^2/K\"], [\"130 degC\", \"12 kW/m^2/K\"]]\n"));
+  EXPECT_EQ(o.code, 2) << o.text;
+  EXPECT_NE(o.text.find("case.yaml:16:51: boundaries[0].convection.h[1][1] = \"-3 "
+                        "kW/m^2/K\": expected a heat-transfer coefficient"),
+            std::string::npos)
+      << o.text;
+  EXPECT_NE(o.text.find(">= 0"), std::string::npos) << o.text;
+  EXPECT_TRUE(nothing_written(dir / "out"));
+}
+
+TEST(SolverErrors, NotANumberOrInfiniteCoefficientIsRejected) {
+  struct Bad {
+    const char* name;
+    std::string condition;
+    std::string located; // file:line:column: field = "value"
+  };
+  const Bad cases[] = {
+      {"nan_h", "    convection: {ambient: \"30 degC\", h: \"nan W/m^2/K\"}\n",
+       "case.yaml:14:41: boundaries[0].convection.h = \"nan W/m^2/K\": expected a "
+       "heat-transfer coefficient"},
+      {"inf_h", "    convection: {ambient: \"30 degC\", h: \"inf W/m^2/K\"}\n",
+       "case.yaml:14:41: boundaries[0].convection.h = \"inf W/m^2/K\": expected a "
+       "heat-transfer coefficient"},
+      {"nan_h_table",
+       "    convection: {ambient: \"30 degC\", h: [[\"40 degC\", \"1 kW/m^2/K\"], "
+       "[\"100 degC\", \"NaN kW/m^2/K\"]]}\n",
+       "boundaries[0].convection.h[1][1] = \"NaN kW/m^2/K\": expected a heat-transfer "
+       "coefficient"},
+  };
+  for (const Bad& b : cases) {
+    SCOPED_TRACE(b.name);
+    const fs::path dir = scratch(b.name);
+    const Outcome o = run_cli(dir, case_with_condition(b.condition));
+    EXPECT_EQ(o.code, 2) << o.text;
+    EXPECT_NE(o.text.find(b.located), std::string::npos) << o.text;
+    EXPECT_NE(o.text.find("NaN and infinity are not allowed"), std::string::npos)
+        << o.text;
+    EXPECT_TRUE(nothing_written(dir / "out"));
+  }
+}
+
+TEST(SolverErrors, EmissivityOutsideZeroToOneIsRejected) {
+  for (const std::string e : {"0", "1.5", "-0.2", "nan"}) {
+    SCOPED_TRACE(e);
+    const fs::path dir = scratch("emissivity_" + e);
+    const Outcome o =
+        run_cli(dir, case_with_condition("    radiation: {emissivity: " + e +
+                                         ", ambient: \"30 degC\"}\n"));
+    EXPECT_EQ(o.code, 2) << o.text;
+    EXPECT_NE(o.text.find("case.yaml:14:29: boundaries[0].radiation.emissivity = \"" + e +
+                          "\": expected an emissivity in (0, 1]"),
+              std::string::npos)
+        << o.text;
+    EXPECT_TRUE(nothing_written(dir / "out"));
+  }
+}
+
+// A Gmsh mesh whose physical tags are not those the case names: the sphere
+// quadrant (examples/meshes) has boundary ids 1, 2, 3 and material id 1.
+std::string gmsh_case(const std::string& material_id, const std::string& boundary_id) {
+  return "name: tag mismatch\n"
+         "geometry: axisymmetric\n"
+         "mesh:\n"
+         "  file: " +
+         source_dir +
+         "/examples/meshes/sphere_quadrant.msh\n"
+         "materials:\n"
+         "  - id: " +
+         material_id + "\n    card: " + source_dir +
+         "/materials/aluminium.yaml\n"
+         "initial_temperature: \"500 degC\"\n"
+         "boundaries:\n"
+         "  - id: " +
+         boundary_id +
+         "\n"
+         "    convection: {ambient: \"30 degC\", h: \"2 kW/m^2/K\"}\n"
+         "time:\n"
+         "  end: \"2 s\"\n"
+         "  first_step: \"0.01 s\"\n"
+         "output:\n"
+         "  folder: out\n"
+         "  fields: false\n"
+         "  plot: false\n";
+}
+
+TEST(SolverErrors, GmshBoundaryTagNotInTheMesh) {
+  const fs::path dir = scratch("gmsh_boundary_tag");
+  const Outcome o = run_cli(dir, gmsh_case("1", "0")); // the generators' id 0
+  EXPECT_EQ(o.code, 2) << o.text;
+  EXPECT_NE(o.text.find("case.yaml:10:9: boundaries[0].id = \"0\": expected a boundary "
+                        "id of the mesh (the mesh has boundary ids: 1, 2, 3)"),
+            std::string::npos)
+      << o.text;
+  EXPECT_TRUE(nothing_written(dir / "out"));
+}
+
+TEST(SolverErrors, GmshMaterialTagWithoutACard) {
+  const fs::path dir = scratch("gmsh_material_tag");
+  const Outcome o = run_cli(dir, gmsh_case("2", "1"));
+  EXPECT_EQ(o.code, 2) << o.text;
+  EXPECT_NE(o.text.find("case.yaml:7:11: materials = \"1\": expected a card for every "
+                        "material id of the mesh: id 1 has none (mesh material ids: 1; "
+                        "cards given for: 2)"),
+            std::string::npos)
+      << o.text;
+  EXPECT_TRUE(nothing_written(dir / "out"));
+}
+
 TEST(CaseFile, MisspeltKeyGetsDidYouMean) {
   try {
     load_case_from_string(
