@@ -53,6 +53,17 @@ runs = ["a_energy_1", "a_energy_2", "a_constant_1", "a_capacity_1",
 s = {r: summary(r) for r in runs}
 
 
+def baseline():
+    """The key: value pairs of linear_baseline's line, or None if it did not run."""
+    path = os.path.join(out, "linear_baseline.txt")
+    if not os.path.exists(path):
+        return None
+    with open(path) as f:
+        line = f.read().strip()
+    return {k.strip(): v.strip() for k, _, v in
+            (item.partition(":") for item in line.split(","))}
+
+
 def num(r, key):
     return float(s[r][key])
 
@@ -68,16 +79,19 @@ def final_imbalance(r):
 
 
 print("| run | ranks | dofs | steps (rejected) | wall s | wall/step s | Newton/step "
-      "| assembly s | material s | material share of assembly | linear solve s "
-      "| worst imbalance | final imbalance |")
-print("|---|---|---|---|---|---|---|---|---|---|---|---|---|")
+      "| Jacobians | residuals | assembly s | material s | material share of assembly "
+      "| linear solve s | AMG setup s | worst imbalance | final imbalance |")
+print("|---|---|---|---|---|---|---|---|---|---|---|---|---|---|---|---|")
 for r in runs:
     a, m = num(r, "wall_time_s.assembly"), num(r, "wall_time_s.material_evaluation")
     print(f"| {r} | {s[r]['ranks']} | {s[r]['mesh.dofs']} | {s[r]['steps.accepted']} "
           f"({s[r]['steps.rejected']}) | {num(r, 'wall_time_s.total'):.2f} "
           f"| {per_step(r, 'wall_time_s.total'):.3f} "
-          f"| {per_step(r, 'steps.newton_iterations'):.2f} | {a:.2f} | {m:.2f} "
+          f"| {per_step(r, 'steps.newton_iterations'):.2f} "
+          f"| {s[r]['steps.jacobian_assemblies']} | {s[r]['steps.residual_assemblies']} "
+          f"| {a:.2f} | {m:.2f} "
           f"| {100 * m / a:.1f} % | {num(r, 'wall_time_s.linear_solve'):.2f} "
+          f"| {num(r, 'wall_time_s.preconditioner'):.2f} "
           f"| {num(r, 'worst_relative_imbalance'):.2e} | {final_imbalance(r):.2e} |")
 
 
@@ -116,6 +130,20 @@ print(f"| speed-up 1 -> 2 ranks, assembly | "
 print(f"| speed-up 1 -> 2 ranks, linear solve | "
       f"{num('a_energy_1', 'wall_time_s.linear_solve') / num('a_energy_2', 'wall_time_s.linear_solve'):.2f} | "
       f"{num('block_energy_1', 'wall_time_s.linear_solve') / num('block_energy_2', 'wall_time_s.linear_solve'):.2f} | |")
+b = baseline()
+if b is not None:
+    step = float(b["step_s"])
+    print()
+    print(f"Linear baseline (same run): {b['unknowns']} unknowns, {step:.3f} s per "
+          f"backward-Euler step, {float(b['cg_iterations_per_step']):.1f} CG iterations "
+          f"per step.")
+    print()
+    print("| 3D block, 1 rank | time stepping per step, s | ratio to the linear baseline "
+          "step | target |")
+    print("|---|---|---|---|")
+    for r in ("block_energy_1", "block_constant_1"):
+        per = stepping(r) / max(1.0, num(r, "steps.accepted"))
+        print(f"| {r} | {per:.3f} | {per / step:.1f} | <= 3 |")
 print()
 print("| default case (a), 1 rank | energy form | capacity form | capacity / energy |")
 print("|---|---|---|---|")
@@ -198,6 +226,16 @@ run a_capacity_1 1 "$case_a" --formulation capacity
 run block_energy_1 1 "$case_3d"
 run block_energy_2 2 "$case_3d"
 run block_constant_1 1 "$case_3d_const"
+# the linear baseline, if built (cmake --build BUILD_DIR --target linear_baseline)
+baseline_exe="$build/tests/benchmarks/linear_baseline"
+if [[ -x "$baseline_exe" ]]; then
+  echo "$baseline_exe $src" >> "$log"
+  echo "[$(date -u +%H:%M:%S)] linear_baseline" >&2
+  "$baseline_exe" "$src" > "$out/linear_baseline.txt"
+else
+  echo "no $baseline_exe: the ratios to the linear baseline are left out" >&2
+  rm -f "$out/linear_baseline.txt"
+fi
 echo "# load after: $(cut -d' ' -f1-3 /proc/loadavg)" >> "$log"
 
 cat "$log"
