@@ -1,12 +1,14 @@
 // SPDX-License-Identifier: Apache-2.0
 // The element cards below 100 K (aluminium, iron, nickel, titanium, tungsten,
-// chromium, silver and lead, which start at 4 K, lead at 7.2 K, its
-// superconducting transition; silicon, which still starts at 100 K, is checked
-// through a test copy of its lattice model). Their lattice model keeps the
-// T^3 limit of the calorimetric Debye temperature theta_0 (Kittel, Introduction
-// to Solid State Physics) and the Sommerfeld term; an Einstein term at
-// theta_0/2 (a convention) carries the excess over Debye at intermediate
-// temperatures, its modes fitted to the SGTE H(298.15 K) - H(0).
+// chromium, silver, silicon and lead, which start at 4 K, lead at 7.2 K, its
+// superconducting transition). Their lattice model keeps the T^3 limit of the
+// calorimetric Debye temperature theta_0 (Kittel, Introduction to Solid State
+// Physics) and the Sommerfeld term; an Einstein term at theta_0/2 (a
+// convention) carries the excess over Debye at intermediate temperatures, its
+// modes fitted to the SGTE H(298.15 K) - H(0). Silicon (theta_0 636 K, Keesom
+// and Seidel 1959, no electrons) differs: its Einstein term sits at the TA(X)
+// phonon, 216 K, and a second one at 670 K carries the 1.5 optical modes per
+// atom (silicon.yaml, sources); its TA modes are fitted to the SGTE enthalpy.
 //
 // References: the SGTE element reference data, H(298.15 K) - H(0) and
 // S(298.15 K) (Dinsdale, CALPHAD 15 (1991) 317; the ELEMENT lines of SGTE-based
@@ -16,7 +18,7 @@
 // What is what:
 // - H(298.15 K) - H(0): a FIT CHECK for the cards with the low-temperature
 //   Einstein term (its modes were fitted to it); validation for silver (no term
-//   fitted) and silicon (no term). Computed as the card's H(298.15 K) - H(T_low)
+//   fitted). Computed as the card's H(298.15 K) - H(T_low)
 //   plus gamma T_low^2/2 + beta T_low^4/4 below T_low, beta = 12 pi^4 R/(5 theta_0^3).
 // - S(298.15 K) = int_0^298.15 c_p/T dT: VALIDATION (no card was fitted to
 //   it), Boost.Math Gauss-Kronrod over the card's c_p from T_low, and gamma T_low
@@ -26,7 +28,10 @@
 // - conductivity below 100 K: the table rows are values of the metal model for a
 //   stated RRR 100 (model estimates, not measurements); compared here with that
 //   model, a FIT CHECK of the transcription only. No published value below 100 K
-//   was checked.
+//   was checked. Silicon (not a metal): Glassbrenner and Slack 1964 at 50-90 K
+//   and a stated boundary + power-law estimate below, both FIT CHECKS of the
+//   transcription.
+// - silicon's c_p at 5-300 K against published values: VALIDATION (below).
 //
 // Tolerances: H 2 %, S 3 % (the project's targets); c_p fit check 1 %. Known
 // misses are pinned at their measured figure, said at each place.
@@ -43,9 +48,7 @@
 #include <algorithm>
 #include <cmath>
 #include <cstdio>
-#include <fstream>
 #include <functional>
-#include <sstream>
 #include <string>
 #include <vector>
 
@@ -72,7 +75,7 @@ struct Element {
 // mJ/mol/K^2 from sub-1 K calorimetry (verified), lead's band value 1.169
 // mJ/mol/K^2 (the normal-state 2.98 of Kittel, from memory, divided by 1 +
 // lambda, lambda = 1.55, McMillan 1968, from memory) and silicon's 636 K (from
-// memory, see silicon.yaml).
+// Keesom and Seidel, Phys. Rev. 113 (1959) 33, verified in the abstract).
 const std::vector<Element> kElements = {
     // SGTE values: Dinsdale 1991, Al, Fe, Cr, Ni as given there
     {"aluminium.yaml", 4.0, 428.0, 1.35e-3, 4577.296, 28.3215, true, 0},
@@ -84,6 +87,7 @@ const std::vector<Element> kElements = {
     {"tungsten.yaml", 4.0, 400.0, 1.46e-3, 4970.0, 32.620, true, 0},
     {"silver.yaml", 4.0, 215.0, 0.646e-3, 5744.6, 42.551, false, 0},
     {"lead.yaml", 7.2, 105.0, 1.169e-3, 6878.5, 64.785, true, 0},
+    {"silicon.yaml", 4.0, 636.0, 0.0, 3217.5, 18.820, true, 0},
 };
 
 double integrate(const std::function<double(double)>& f, double a, double b) {
@@ -133,34 +137,57 @@ TEST(LowTemperatureCards, EnthalpyAndEntropyAgainstSgte) {
   }
 }
 
-// Silicon keeps its published-value lattice model (Debye 636 K, no electrons):
-// the Einstein convention of the other cards (theta_E = theta_0/2, modes fitted to
-// the SGTE enthalpy) would leave S(298.15 K) at -5.2 % and raise c_p(298.15 K) to
-// 3.2 % above the CRC Handbook, so it was not adopted, and with no published
-// conductivity below 100 K found the card still starts at 100 K. Its lattice
-// model, evaluated here down to 4 K in a test copy whose conductivity table gets
-// a placeholder row at 4 K (k is not checked), misses both SGTE figures: KNOWN
-// MISSES, pinned at the measured -3.74 % (H) and -9.69 % (S).
-TEST(LowTemperatureCards, SiliconLatticeModelKnownMisses) {
-  std::ifstream in(material_path("silicon.yaml"));
-  std::stringstream text;
-  text << in.rdbuf();
-  std::string card = text.str();
-  card = quantacal::test::replace(card, "valid_range: {from: \"100 K\"",
-                                  "valid_range: {from: \"4 K\"");
-  card =
-      quantacal::test::replace(card, "rows: [[100, 884]", "rows: [[4, 884], [100, 884]");
-  const MaterialPtr si = load_card_from_string(card, material_path("silicon.yaml"));
-  // SGTE Unary 5.0 ELEMENT line for diamond silicon (verified in a public copy):
-  // 3217.5 J/mol, 18.820 J/mol/K.
-  const Figures f = h_and_s(*si, 4.0, 636.0, 0.0);
-  const double dh = f.h / 3217.5 - 1, ds = f.s / 18.820 - 1;
-  std::printf("  silicon (lattice model) H(298.15)-H(0) %+6.2f %%, S(298.15) %+6.2f %% "
-              "(validation, known misses)\n",
-              100 * dh, 100 * ds);
-  EXPECT_NEAR(dh, -0.0374, 0.002);
-  EXPECT_NEAR(ds, -0.0969, 0.002);
-  EXPECT_EQ(load_card(material_path("silicon.yaml"))->lower_temperature(), 100.0);
+// VALIDATION of silicon's lattice model (silicon.yaml: Debye with the T^3 limit of
+// 636 K, Einstein terms at 216 K, TA modes fitted to the SGTE H(298.15 K) - H(0),
+// and 670 K) against published c_p it was not fitted to:
+// - the Ioffe Institute semiconductor database (NSM archive, Si, thermal
+//   properties: c_p against T on logarithmic axes), as digitized in J/g/K in the
+//   public file Cp_Si.txt of github.com/geravillag/Thermal-properties-SOI (its
+//   References.txt names that page); points up to 100 K, where it agrees with
+//   MatWeb below; digitization of a log plot: a few %, tolerance 5 %. Above
+//   150 K the digitized curve falls 4-7 % below JANAF and MatWeb and is not used.
+// - MatWeb, silicon data sheet, as transcribed in J/g/K at -213, -173, -73 and
+//   27 degC in a public code file (a Python k(T), Cp(T) module for silicon;
+//   not checked against MatWeb). At 60 K the two sources differ by 12 %.
+// At 10-60 K the model is KNOWN LOW: silicon's Debye temperature falls from 636
+// K to about 440 K near 40 K (the dispersive TA branches), which a Debye term and
+// an Einstein term at the zone-boundary TA energy cannot follow. These misses
+// are pinned at their measured figure (+-3 points); the rest must lie within
+// the tolerance.
+TEST(LowTemperatureCards, SiliconCapacityAgainstPublishedValues) {
+  struct Point {
+    double t;        // K
+    double cp;       // J/g/K as published
+    double expected; // measured deviation if a pinned known miss, else 0
+    double tol;
+  };
+  const std::vector<Point> points = {
+      // Ioffe NSM archive, Si, c_p plot, digitized (Cp_Si.txt)
+      {5.050181969700269, 0.00003450621393041774, 0, 0.05},
+      {10.113791496779537, 0.00032918566348533906, -0.154, 0.03}, // known miss
+      {20.79435584281563, 0.005003414740217999, -0.413, 0.03},    // known miss
+      {29.58243080580461, 0.019788552066552532, -0.365, 0.03},    // known miss
+      {40.56280075034239, 0.055100722589171376, -0.286, 0.03},    // known miss
+      {49.021249900297555, 0.0883507557798255, -0.232, 0.03},     // known miss
+      {59.24351616097761, 0.12589254117941687, -0.156, 0.03},     // known miss
+      {81.23345094805042, 0.20774109305688343, -0.081, 0.03},     // known miss
+      {98.17283879625425, 0.2630564165824243, 0, 0.05},
+      // MatWeb silicon data sheet (transcribed); 60 K: the sources differ by 12 %
+      {60.15, 0.115, 0, 0.08},
+      {100.15, 0.259, 0, 0.05},
+      {200.15, 0.557, 0, 0.05},
+      {300.15, 0.713, 0, 0.05},
+  };
+  const MaterialPtr si = load_card(material_path("silicon.yaml"));
+  for (const Point& p : points) {
+    const double model = si->thermal(p.t, Basis::mass).capacity; // J/kg/K
+    const double d = model / (1000 * p.cp) - 1;
+    std::printf("  silicon c_p(%6.2f K) card %10.4g  published %10.4g J/g/K  %+6.1f %% "
+                "(validation%s)\n",
+                p.t, model / 1000, p.cp, 100 * d, p.expected != 0 ? ", known miss" : "");
+    EXPECT_NEAR(d, p.expected, p.tol) << p.t;
+  }
+  EXPECT_EQ(si->lower_temperature(), 4.0);
 }
 
 // FIT CHECK: c_p from T_low to 10 K against gamma T + beta T^3 of the card's own
@@ -275,6 +302,39 @@ TEST(LowTemperatureCards, ConductivityRowsAreTheStatedMetalModel) {
     for (double t = m->lower_temperature(); t <= 120.0; t += 0.5)
       EXPECT_GT(m->conductivity(t).value, 0.0) << t;
   }
+}
+
+// FIT CHECK of the transcription: silicon's conductivity rows below 100 K.
+// 50-90 K against Glassbrenner and Slack, Phys. Rev. 134 (1964) A1058, as
+// transcribed in W/cm/K in a public code file (26, 21, 17, 13.9, 11.4); 4-40 K
+// against the stated estimate of silicon.yaml, 1/k = 1/k_B + 1/k_I, boundary
+// limit k_B = C v L / 3 (T^3 law of theta_0 = 636 K per molar volume 12.0590
+// cm^3/mol, v = Debye mean sound speed of theta_0, L = 5 mm) and k_I = 2600 W/m/K
+// (50 K/T)^n through Glassbrenner and Slack's 2600 (50 K) and 950 W/m/K (100 K).
+// Rows rounded to 3 significant figures: 0.5 %. Not a validation: no published
+// value below 50 K was checked (low confidence, see silicon.yaml).
+TEST(LowTemperatureCards, SiliconConductivityRowsAreTheStatedValues) {
+  const MaterialPtr si = load_card(material_path("silicon.yaml"));
+  const std::vector<std::pair<double, double>> gs = {
+      {50, 2600}, {60, 2100}, {70, 1700}, {80, 1390}, {90, 1140}};
+  for (const auto& [t, k] : gs)
+    EXPECT_NEAR(si->conductivity(t).value / k - 1, 0.0, 0.005) << t;
+  constexpr double kB = 1.380649e-23, hbar = 1.054571817e-34, avogadro = 6.02214076e23;
+  const double vm = 12.0590e-6;
+  const double v = kB * 636.0 / hbar / std::cbrt(6 * M_PI * M_PI * avogadro / vm);
+  const double n = std::log(2600.0 / 950.0) / std::log(2.0);
+  for (double t : {4.0, 6.0, 10.0, 15.0, 20.0, 30.0, 40.0}) {
+    const double kb = kDebyeT3 * std::pow(t / 636.0, 3) / vm * v * 5e-3 / 3;
+    const double ki = 2600.0 * std::pow(50.0 / t, n);
+    const double reference = 1 / (1 / kb + 1 / ki);
+    const double card = si->conductivity(t).value;
+    std::printf(
+        "  silicon k(%4.1f K) card %7.1f  stated estimate %7.1f W/m/K (fit check)\n", t,
+        card, reference);
+    EXPECT_NEAR(card / reference - 1, 0.0, 0.005) << t;
+  }
+  for (double t = si->lower_temperature(); t <= 120.0; t += 0.5)
+    EXPECT_GT(si->conductivity(t).value, 0.0) << t;
 }
 
 } // namespace
