@@ -1,7 +1,10 @@
 # SPDX-License-Identifier: Apache-2.0
 # Install-tree test: install this build into a staging prefix under the build folder,
 # then configure, build and run tests/consumer (find_package(quantacal)) against it.
-set(_qc_consumer_targets quantacal_cards quantacal_fit quantacal_cli)
+set(_qc_consumer_targets quantacal_cards quantacal_fit quantacal_cli quantacal_c)
+if(TARGET quantacal_fortran)
+  list(APPEND _qc_consumer_targets quantacal_fortran)
+endif()
 if(TARGET quantacal_solver)
   list(APPEND _qc_consumer_targets quantacal_fe quantacal_solver)
 endif()

@@ -5,6 +5,7 @@
 #include <quantacal/quantacal.h>
 
 #include <cmath>
+#include <cstdio>
 #include <iostream>
 #include <memory>
 #include <string>
@@ -46,6 +47,7 @@ int main(int argc, char** argv) {
         material->thermal(300.0, quantacal::Basis::mass);
     std::cout << "cp(300 K) = " << quantacal::format_double(state.capacity)
               << " J/kg/K\n";
+    std::printf("cp(300 K) bits = %a\n", state.capacity); // compared with the C consumer
 
     // The material layer's calls as docs/api.md shows them: a batch on the volume
     // basis, its inverse, and two equal bodies at 300 K and 400 K in contact.

@@ -3,7 +3,9 @@
 #   1. make sure the installed targets are built (a no-op after a full build),
 #   2. `cmake --install` the build tree into a fresh staging prefix,
 #   3. configure and build tests/consumer against it with find_package(quantacal),
-#   4. run the consumer on the installed copper card and check c_p(300 K).
+#   4. run the consumer on the installed copper card and check c_p(300 K);
+#   5. run the C consumer (quantacal::c) on the same card: the same c_p, to the last
+#      digit printed, and a located error for a missing card.
 # Inputs (-D): BINARY_DIR, SOURCE_DIR, WORK_DIR, BUILD_TARGETS (;-list), CXX_COMPILER.
 foreach(var BINARY_DIR SOURCE_DIR WORK_DIR)
   if(NOT DEFINED ${var})
@@ -28,7 +30,8 @@ if(BUILD_TARGETS)
 endif()
 run_step(install ${CMAKE_COMMAND} --install "${BINARY_DIR}" --prefix "${stage}")
 
-foreach(file include/quantacal/quantacal.h include/quantacal/version.h)
+foreach(file include/quantacal/quantacal.h include/quantacal/version.h
+             include/quantacal/c/quantacal.h)
   if(NOT EXISTS "${stage}/${file}")
     message(FATAL_ERROR "consumer test: ${file} is missing from the install tree")
   endif()
@@ -89,3 +92,31 @@ set(final "${CMAKE_MATCH_1}")
 if(final LESS 348 OR final GREATER 352)
   message(FATAL_ERROR "consumer test: equilibrium = ${final} K, expected 350 K +- 2 K")
 endif()
+
+# The C consumer: the C interface gives the C++ API's c_p(300 K) bit for bit (both
+# consumers print it as a hexadecimal float, %a), T(e(350 K)) = 350 K, and an input
+# error naming a missing card.
+if(NOT step_output MATCHES "cp\\(300 K\\) bits = ([-+0-9a-fA-Fx.p]+)")
+  message(FATAL_ERROR "consumer test: no bits line in: ${step_output}")
+endif()
+set(cp_bits "${CMAKE_MATCH_1}")
+run_step(run-c "${consumer_build}/c_consumer" "${card}")
+if(NOT step_output MATCHES "C cp\\(300 K\\) bits = ([-+0-9a-fA-Fx.p]+)")
+  message(FATAL_ERROR "consumer test: unexpected C output: ${step_output}")
+endif()
+set(c_cp_bits "${CMAKE_MATCH_1}")
+if(NOT c_cp_bits STREQUAL cp_bits)
+  message(FATAL_ERROR "consumer test: c_p(300 K) from C ${c_cp_bits}, from C++ ${cp_bits}")
+endif()
+if(NOT step_output MATCHES "C T\\(e\\(350 K\\)\\) = ([-+0-9.eE]+) K")
+  message(FATAL_ERROR "consumer test: no C inverse line in: ${step_output}")
+endif()
+set(c_back "${CMAKE_MATCH_1}")
+if(c_back LESS 349.999999 OR c_back GREATER 350.000001)
+  message(FATAL_ERROR "consumer test: C T(e(350 K)) = ${c_back} K")
+endif()
+if(NOT step_output MATCHES "C missing card: input error: qc_load_card: no-such-card.yaml: cannot open")
+  message(FATAL_ERROR "consumer test: C missing-card message: ${step_output}")
+endif()
+message(STATUS "consumer test: C interface: cp(300 K) = ${c_cp_bits} (C++ ${cp_bits}), "
+               "T(e(350 K)) = ${c_back} K")
