@@ -80,6 +80,8 @@ int main(int argc, char** argv) {
     print_help(std::cerr);
     return invalid_input;
   }
+  if (args[0] == "help" && args.size() == 2 && command_registry().count(args[1]))
+    return command_registry().at(args[1]).run({"--help"}); // quantacal help COMMAND
   if (args[0] == "--help" || args[0] == "-h" || args[0] == "help") {
     print_help(std::cout);
     return ok;
