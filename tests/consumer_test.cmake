@@ -8,6 +8,12 @@ endif()
 if(TARGET quantacal_solver)
   list(APPEND _qc_consumer_targets quantacal_fe quantacal_solver)
 endif()
+set(_qc_consumer_python)
+if(TARGET quantacal_python)
+  list(APPEND _qc_consumer_targets quantacal_python)
+  set(_qc_consumer_python -DPYTHON_EXECUTABLE=${Python3_EXECUTABLE}
+                          -DPYTHON_SITE=${QUANTACAL_PYTHON_INSTALL_DIR})
+endif()
 string(REPLACE ";" "\\;" _qc_consumer_targets_arg "${_qc_consumer_targets}")
 add_test(NAME consumer.find_package_install_tree
          COMMAND ${CMAKE_COMMAND}
@@ -16,6 +22,7 @@ add_test(NAME consumer.find_package_install_tree
                  -DWORK_DIR=${PROJECT_BINARY_DIR}/consumer-test
                  "-DBUILD_TARGETS=${_qc_consumer_targets_arg}"
                  -DCXX_COMPILER=${CMAKE_CXX_COMPILER}
+                 ${_qc_consumer_python}
                  -P ${CMAKE_CURRENT_SOURCE_DIR}/consumer/run_consumer.cmake)
 set_tests_properties(consumer.find_package_install_tree PROPERTIES
                      LABELS consumer TIMEOUT 300 RUN_SERIAL TRUE)

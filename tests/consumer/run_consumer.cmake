@@ -5,8 +5,11 @@
 #   3. configure and build tests/consumer against it with find_package(quantacal),
 #   4. run the consumer on the installed copper card and check c_p(300 K);
 #   5. run the C consumer (quantacal::c) on the same card: the same c_p, to the last
-#      digit printed, and a located error for a missing card.
-# Inputs (-D): BINARY_DIR, SOURCE_DIR, WORK_DIR, BUILD_TARGETS (;-list), CXX_COMPILER.
+#      digit printed, and a located error for a missing card;
+#   6. with PYTHON_EXECUTABLE and PYTHON_SITE (the Python package was built): import
+#      quantacal from <stage>/PYTHON_SITE through PYTHONPATH and get the same c_p.
+# Inputs (-D): BINARY_DIR, SOURCE_DIR, WORK_DIR, BUILD_TARGETS (;-list), CXX_COMPILER,
+#              PYTHON_EXECUTABLE and PYTHON_SITE (optional).
 foreach(var BINARY_DIR SOURCE_DIR WORK_DIR)
   if(NOT DEFINED ${var})
     message(FATAL_ERROR "run_consumer.cmake: -D${var}=... is required")
@@ -120,3 +123,31 @@ if(NOT step_output MATCHES "C missing card: input error: qc_load_card: no-such-c
 endif()
 message(STATUS "consumer test: C interface: cp(300 K) = ${c_cp_bits} (C++ ${cp_bits}), "
                "T(e(350 K)) = ${c_back} K")
+
+# The Python package from the install tree: imported through PYTHONPATH from
+# <stage>/PYTHON_SITE (not the build tree), c_p(300 K) of the same card equal to the
+# C++ consumer's, bit for bit.
+if(PYTHON_EXECUTABLE AND PYTHON_SITE)
+  set(python_site "${stage}/${PYTHON_SITE}")
+  if(NOT EXISTS "${python_site}/quantacal/__init__.py")
+    message(FATAL_ERROR "consumer test: the Python package is missing from ${python_site}")
+  endif()
+  set(python_check [=[
+import sys, quantacal
+m = quantacal.load_card(sys.argv[1])
+cp = m.capacity(300.0)
+print("Python module: " + quantacal.__file__)
+print("Python cp(300 K) = %r J/kg/K, equal to C++: %s" % (cp, cp == float.fromhex(sys.argv[2])))
+]=])
+  run_step(run-python ${CMAKE_COMMAND} -E env "PYTHONPATH=${python_site}" PYTHONDONTWRITEBYTECODE=1
+           "${PYTHON_EXECUTABLE}" -c "${python_check}" "${card}" "${cp_bits}")
+  string(FIND "${step_output}" "Python module: ${python_site}/quantacal/__init__.py" at)
+  if(at EQUAL -1)
+    message(FATAL_ERROR "consumer test: quantacal not imported from the install tree: ${step_output}")
+  endif()
+  if(NOT step_output MATCHES "Python cp\\(300 K\\) = ([-+0-9.eE]+) J/kg/K, equal to C\\+\\+: True")
+    message(FATAL_ERROR "consumer test: Python c_p(300 K) differs from C++ ${cp_bits}: ${step_output}")
+  endif()
+  message(STATUS "consumer test: Python package from ${python_site}: cp(300 K) = "
+                 "${CMAKE_MATCH_1} J/kg/K, equal to C++ ${cp_bits}")
+endif()
