@@ -19,6 +19,27 @@ namespace quantacal::solver::detail {
 
 using namespace dealii;
 
+namespace {
+
+/** What the stored energy reads: E (and C, dC/dT for the Jacobian or the capacity
+ * form). */
+fe::PropertyFlags stored_energy_flags(bool capacity_form, bool with_jacobian) {
+  fe::PropertyFlags flags = fe::property_energy;
+  if (capacity_form || with_jacobian)
+    flags |= fe::property_capacity;
+  if (capacity_form && with_jacobian)
+    flags |= fe::property_capacity_derivative;
+  return flags;
+}
+
+void check_temperature(double temperature) {
+  if (!(temperature > 0.0) || !std::isfinite(temperature))
+    throw RangeError("quantacal::solver::run_case", "temperature field",
+                     "a positive, finite temperature", temperature);
+}
+
+} // namespace
+
 /** The FEValues and buffers of one assembly, reused cell after cell. */
 template <int dim>
 struct Assembler<dim>::CellScratch {
@@ -31,21 +52,17 @@ struct Assembler<dim>::CellScratch {
         mass_values(d.mapping, d.fe, d.mass_quadrature,
                     update_values | update_quadrature_points | update_JxW_values),
         n_dofs(d.fe.n_dofs_per_cell()), n_points(d.cell_quadrature.size()),
-        // lumped: one "point" per node (its temperature, weight int w phi_i)
-        n_mass_points(d.lumped_mass ? n_dofs : d.mass_quadrature.size()),
+        // lumped: the stored energy is evaluated at the nodes, not per cell
+        n_mass_points(d.lumped_mass ? 0 : d.mass_quadrature.size()),
         n_face_points(d.face_quadrature.size()), mass_temperature(n_mass_points),
-        mass_reference(n_mass_points), lumped_weight(n_dofs), local_values(n_dofs),
-        cell_jacobian(n_dofs, n_dofs), cell_energy(n_dofs), cell_flow(n_dofs),
-        cell_absolute(n_dofs), dofs(n_dofs), temperature(n_points),
+        mass_reference(n_mass_points), cell_jacobian(n_dofs, n_dofs), cell_energy(n_dofs),
+        cell_flow(n_dofs), cell_absolute(n_dofs), dofs(n_dofs), temperature(n_points),
         face_temperature(n_face_points), gradient(n_points) {
     // each point set gets only what the assembly reads from it: E (and C, dC/dT for
     // the Jacobian or the capacity form) at the mass points, k (and dk/dT for the
     // Jacobian) at the Gauss points
-    mass_flags = fe::property_energy;
-    if (capacity_form || with_jacobian)
-      mass_flags |= fe::property_capacity;
-    if (capacity_form && with_jacobian)
-      mass_flags |= fe::property_capacity_derivative;
+    if (n_mass_points > 0)
+      mass_flags = stored_energy_flags(capacity_form, with_jacobian);
     point_flags = fe::property_conductivity;
     if (with_jacobian)
       point_flags |= fe::property_conductivity_derivative;
@@ -55,8 +72,7 @@ struct Assembler<dim>::CellScratch {
   FEFaceValues<dim> face_values; ///< boundary faces
   FEValues<dim> mass_values;     ///< stored energy (consistent mass)
   const unsigned int n_dofs, n_points, n_mass_points, n_face_points;
-  std::vector<double> mass_temperature, mass_reference, lumped_weight;
-  dealii::Vector<double> local_values;
+  std::vector<double> mass_temperature, mass_reference;
   fe::PointProperties mass_properties, point_properties;
   fe::PropertyFlags mass_flags = fe::property_none, point_flags = fe::property_none;
   FullMatrix<double> cell_jacobian;
@@ -102,7 +118,55 @@ Assembler<dim>::Assembler(const CaseDescription& description,
       capacity_form_(description.solver.formulation == Formulation::capacity),
       stored_energy_(discretization.owned_vector()),
       heat_flow_(discretization.owned_vector()),
-      absolute_energy_(discretization.owned_vector()) {}
+      absolute_energy_(discretization.owned_vector()) {
+  if (discretization_.lumped_mass)
+    build_nodal_masses();
+}
+
+// m_i = int w phi_i per material, summed over the cells of every rank at the node's
+// owner (a distributed vector per material), then kept as lists of owned nodes.
+template <int dim>
+void Assembler<dim>::build_nodal_masses() {
+  nodal_masses_.clear();
+  FEValues<dim> values(discretization_.mapping, discretization_.fe,
+                       discretization_.cell_quadrature,
+                       update_values | update_quadrature_points | update_JxW_values);
+  const unsigned int n_dofs = discretization_.fe.n_dofs_per_cell();
+  std::vector<types::global_dof_index> dofs(n_dofs);
+  dealii::Vector<double> local(n_dofs);
+  for (const auto& [id, shift] : energy_shift_) {
+    Vector weights = discretization_.owned_vector();
+    for (const auto& cell : discretization_.dof_handler.active_cell_iterators()) {
+      if (!cell->is_locally_owned() || cell->material_id() != id)
+        continue;
+      values.reinit(cell);
+      for (unsigned int i = 0; i < n_dofs; ++i) {
+        local(i) = 0.0;
+        for (unsigned int q = 0; q < values.n_quadrature_points; ++q)
+          local(i) += values.shape_value(i, q) * values.JxW(q) *
+                      weight(values.quadrature_point(q));
+      }
+      cell->get_dof_indices(dofs);
+      weights.add(dofs, local);
+    }
+    weights.compress(VectorOperation::add);
+    NodalMass mass;
+    mass.id = id;
+    mass.shift = shift;
+    for (const auto i : discretization_.owned_dofs)
+      if (weights[i] != 0.0) {
+        mass.dofs.push_back(i);
+        mass.weights.push_back(weights[i]);
+        mass.constrained.push_back(discretization_.constraints.is_constrained(i) ? 1 : 0);
+      }
+    const std::size_t n = mass.dofs.size();
+    mass.temperature.resize(n);
+    mass.reference.assign(n, 0.0);
+    mass.energy.resize(n);
+    mass.absolute.resize(n);
+    nodal_masses_.push_back(std::move(mass));
+  }
+}
 
 template <int dim>
 double Assembler<dim>::weight(const Point<dim>& point) const {
@@ -124,44 +188,27 @@ template <int dim>
 void Assembler<dim>::gather_temperatures(const Cell& cell, const Vector& temperature,
                                          const Vector* capacity_reference,
                                          CellScratch& scratch) const {
-  const bool lumped = discretization_.lumped_mass;
   scratch.values.reinit(cell);
   scratch.values.get_function_values(temperature, scratch.temperature);
   scratch.values.get_function_gradients(temperature, scratch.gradient);
-  if (lumped) {
-    cell->get_dof_values(temperature, scratch.local_values);
-    for (unsigned int i = 0; i < scratch.n_dofs; ++i)
-      scratch.mass_temperature[i] = scratch.local_values(i);
-  } else {
-    scratch.mass_values.reinit(cell);
-    scratch.mass_values.get_function_values(temperature, scratch.mass_temperature);
-  }
-  if (capacity_form_ && capacity_reference) {
-    if (lumped) {
-      cell->get_dof_values(*capacity_reference, scratch.local_values);
-      for (unsigned int i = 0; i < scratch.n_dofs; ++i)
-        scratch.mass_reference[i] = scratch.local_values(i);
-    } else {
-      scratch.mass_values.get_function_values(*capacity_reference,
-                                              scratch.mass_reference);
-    }
-  }
+  if (discretization_.lumped_mass)
+    return; // the stored energy is evaluated at the nodes (add_lumped_energy)
+  scratch.mass_values.reinit(cell);
+  scratch.mass_values.get_function_values(temperature, scratch.mass_temperature);
+  if (capacity_form_ && capacity_reference)
+    scratch.mass_values.get_function_values(*capacity_reference, scratch.mass_reference);
 }
 
 template <int dim>
 void Assembler<dim>::evaluate_materials(const Cell& cell, CellScratch& scratch) const {
   for (unsigned int q = 0; q < scratch.n_points; ++q)
-    if (!(scratch.temperature[q] > 0.0) || !std::isfinite(scratch.temperature[q]))
-      throw RangeError("quantacal::solver::run_case", "temperature field",
-                       "a positive, finite temperature", scratch.temperature[q]);
+    check_temperature(scratch.temperature[q]);
   for (unsigned int q = 0; q < scratch.n_mass_points; ++q)
-    if (!(scratch.mass_temperature[q] > 0.0) ||
-        !std::isfinite(scratch.mass_temperature[q]))
-      throw RangeError("quantacal::solver::run_case", "temperature field",
-                       "a positive, finite temperature", scratch.mass_temperature[q]);
+    check_temperature(scratch.mass_temperature[q]);
   const auto start = Clock::now();
-  field_.evaluate(cell->material_id(), scratch.mass_temperature, scratch.mass_properties,
-                  scratch.mass_flags);
+  if (scratch.n_mass_points > 0)
+    field_.evaluate(cell->material_id(), scratch.mass_temperature,
+                    scratch.mass_properties, scratch.mass_flags);
   field_.evaluate(cell->material_id(), scratch.temperature, scratch.point_properties,
                   scratch.point_flags);
   scratch.material_seconds += seconds_since(start);
@@ -182,34 +229,58 @@ double Assembler<dim>::source_density(types::material_id id, double time) const 
 
 // Lumped stored energy: M_i = m_i E(T_i) with m_i = int w phi_i, the row sum of the
 // w-weighted mass matrix (positive also on the axis r = 0, where a nodal quadrature
-// would give zero weight). `measure` is w JxW of a quadrature point, or m_i.
+// would give zero weight), one batch per material over its owned nodes. A node on
+// the interface of two materials gets both terms. The Jacobian's diagonal m_i C(T_i)
+// goes to the free rows (a fixed node's row is set by the constraints).
 template <int dim>
-void Assembler<dim>::add_lumped_energy(double shift, bool with_jacobian,
-                                       CellScratch& scratch, AssembledSums& sums) const {
-  const FEValues<dim>& values = scratch.values;
-  const fe::PointProperties& properties = scratch.mass_properties;
-  for (unsigned int i = 0; i < scratch.n_dofs; ++i) {
-    scratch.lumped_weight[i] = 0.0;
-    for (unsigned int q = 0; q < scratch.n_points; ++q)
-      scratch.lumped_weight[i] +=
-          values.shape_value(i, q) * values.JxW(q) * weight(values.quadrature_point(q));
+void Assembler<dim>::add_lumped_energy(const Vector& temperature,
+                                       const Vector* capacity_reference,
+                                       bool with_jacobian, AssembledSums& sums,
+                                       bool& failed, std::string& message) {
+  const fe::PropertyFlags flags = stored_energy_flags(capacity_form_, with_jacobian);
+  double material_seconds = 0.0;
+  for (NodalMass& mass : nodal_masses_) {
+    const std::size_t n = mass.dofs.size();
+    try {
+      for (std::size_t k = 0; k < n; ++k) {
+        mass.temperature[k] = temperature[mass.dofs[k]];
+        check_temperature(mass.temperature[k]);
+      }
+      const auto start = Clock::now();
+      field_.evaluate(mass.id, mass.temperature, mass.properties, flags);
+      material_seconds += seconds_since(start);
+    } catch (const std::exception& e) {
+      if (!failed)
+        message = e.what();
+      failed = true;
+      continue;
+    }
+    if (capacity_form_)
+      for (std::size_t k = 0; k < n; ++k)
+        mass.reference[k] =
+            capacity_reference ? (*capacity_reference)[mass.dofs[k]] : 0.0;
+    const fe::PointProperties& properties = mass.properties;
+    for (std::size_t k = 0; k < n; ++k) {
+      const double measure = mass.weights[k];
+      const double energy = properties.energy[k] - mass.shift;
+      const double T_change = mass.temperature[k] - mass.reference[k];
+      sums.stored += energy * measure;
+      sums.shift += mass.shift * measure;
+      mass.energy[k] =
+          (capacity_form_ ? properties.capacity[k] * T_change : energy) * measure;
+      mass.absolute[k] = std::abs(properties.energy[k]) * measure;
+      if (with_jacobian && !mass.constrained[k])
+        discretization_.jacobian.add(
+            mass.dofs[k], mass.dofs[k],
+            (capacity_form_
+                 ? properties.capacity[k] + properties.capacity_derivative[k] * T_change
+                 : properties.capacity[k]) *
+                measure);
+    }
+    stored_energy_.add(mass.dofs, mass.energy);
+    absolute_energy_.add(mass.dofs, mass.absolute);
   }
-  for (unsigned int i = 0; i < scratch.n_dofs; ++i) {
-    const double measure = scratch.lumped_weight[i];
-    const double energy = properties.energy[i] - shift;
-    const double T_change = scratch.mass_temperature[i] - scratch.mass_reference[i];
-    sums.stored += energy * measure;
-    sums.shift += shift * measure;
-    scratch.cell_energy(i) +=
-        (capacity_form_ ? properties.capacity[i] * T_change : energy) * measure;
-    scratch.cell_absolute(i) += std::abs(properties.energy[i]) * measure;
-    if (with_jacobian)
-      scratch.cell_jacobian(i, i) +=
-          (capacity_form_
-               ? properties.capacity[i] + properties.capacity_derivative[i] * T_change
-               : properties.capacity[i]) *
-          measure;
-  }
+  timings_.material_evaluation += material_seconds;
 }
 
 // Consistent stored energy: int w phi_i E(T_h) on Gauss points.
@@ -367,15 +438,16 @@ AssembledSums Assembler<dim>::assemble(const Vector& temperature, double time,
     scratch.cell_energy = 0;
     scratch.cell_absolute = 0;
     scratch.cell_flow = 0;
-    if (discretization_.lumped_mass)
-      add_lumped_energy(shift, with_jacobian, scratch, local);
-    else
+    if (!discretization_.lumped_mass)
       add_consistent_energy(cell, shift, with_jacobian, scratch, local);
     add_conduction_and_source(source, beta_h, with_jacobian, scratch, local);
     add_natural_boundaries(cell, temperature, beta_h, with_jacobian, scratch, local);
     distribute(cell, with_jacobian, scratch);
   }
   timings_.material_evaluation += scratch.material_seconds;
+  if (discretization_.lumped_mass)
+    add_lumped_energy(temperature, capacity_reference, with_jacobian, local, failed,
+                      message);
   stored_energy_.compress(VectorOperation::add);
   absolute_energy_.compress(VectorOperation::add);
   heat_flow_.compress(VectorOperation::add);

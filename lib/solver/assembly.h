@@ -26,6 +26,7 @@
 #include <map>
 #include <string>
 #include <utility>
+#include <vector>
 
 namespace quantacal::solver::detail {
 
@@ -83,8 +84,11 @@ private:
                            const Vector* capacity_reference, CellScratch& scratch) const;
   void evaluate_materials(const Cell& cell, CellScratch& scratch) const;
   double source_density(dealii::types::material_id id, double time) const;
-  void add_lumped_energy(double shift, bool with_jacobian, CellScratch& scratch,
-                         AssembledSums& sums) const;
+  /** The lumped weights of each material at its owned nodes (NodalMass). */
+  void build_nodal_masses();
+  void add_lumped_energy(const Vector& temperature, const Vector* capacity_reference,
+                         bool with_jacobian, AssembledSums& sums, bool& failed,
+                         std::string& message);
   void add_consistent_energy(const Cell& cell, double shift, bool with_jacobian,
                              CellScratch& scratch, AssembledSums& sums) const;
   void add_conduction_and_source(double source, double beta_h, bool with_jacobian,
@@ -107,6 +111,23 @@ private:
   const bool axisymmetric_;
   const bool capacity_form_;
   Vector stored_energy_, heat_flow_, absolute_energy_;
+
+  /**
+   * Lumped stored energy, one material: M_i += m_i E(T_i) at its locally owned
+   * nodes, with m_i = int w phi_i over the material's cells (on every rank, summed
+   * at the owner). Evaluated node by node in one batch per material instead of
+   * once per adjacent cell (8 times per node in 3D).
+   */
+  struct NodalMass {
+    dealii::types::material_id id = 0;
+    double shift = 0.0; ///< E(T_initial), J/m^3, as energy_shift_
+    std::vector<dealii::types::global_dof_index> dofs;
+    std::vector<double> weights;   ///< m_i, m^3 (w-weighted)
+    std::vector<char> constrained; ///< 1 for a fixed-temperature node
+    std::vector<double> temperature, reference, energy, absolute;
+    fe::PointProperties properties;
+  };
+  std::vector<NodalMass> nodal_masses_;
 };
 
 /**
