@@ -11,8 +11,11 @@
 
 #include <deal.II/base/mpi.h>
 
+#include <csignal>
+#include <cstdlib>
 #include <filesystem>
 #include <iostream>
+#include <memory>
 #include <string>
 #include <system_error>
 #include <vector>
@@ -36,6 +39,9 @@ OptionParser run_parser() {
                  {"1", "2", "3"})
       .add_flag("no-fields", "do not write VTU/PVTU/PVD field files")
       .add_flag("no-plot", "do not plot the cooling curves (no gnuplot script, no SVG)")
+      .add_flag("resume",
+                "continue from the last checkpoint in the output folder (written with\n"
+                "output.checkpoint_interval); the result files are continued")
       .add_flag("quiet", "no header, progress or log lines")
       .add_epilogue(
           "Results are estimates to be checked against measurements; quench and cryogen\n"
@@ -61,6 +67,49 @@ solver::CaseDescription load_with_overrides(const ParsedOptions& options) {
   if (options.has("no-plot"))
     description.output.plot = false;
   return description;
+}
+
+/**
+ * For tests only: QUANTACAL_TEST_KILL_AT=step:N makes the process kill itself
+ * (SIGKILL, no clean-up) after the N-th accepted step of this session, and
+ * QUANTACAL_TEST_KILL_AT=checkpoint:POINT:N at POINT (written, renamed, committed)
+ * of the N-th checkpoint it writes, so that a test can interrupt a run at a named
+ * point (docs/cases.md, "Checkpoints and --resume").
+ */
+void install_test_kill_point(solver::RunOptions& run_options) {
+  const char* text = std::getenv("QUANTACAL_TEST_KILL_AT");
+  if (!text || !*text)
+    return;
+  const std::string spec(text);
+  const auto last = spec.rfind(':');
+  const auto count = last == std::string::npos
+                         ? 0UL
+                         : std::strtoul(spec.c_str() + last + 1, nullptr, 10);
+  if (count == 0)
+    throw UsageError("QUANTACAL_TEST_KILL_AT = \"" + spec +
+                     "\": expected step:N or checkpoint:POINT:N with N >= 1");
+  const std::string what = spec.substr(0, last);
+  if (what == "step") {
+    auto seen = std::make_shared<unsigned long>(0);
+    run_options.on_step = [seen, count](double, double) {
+      if (++*seen == count)
+        std::raise(SIGKILL);
+    };
+  } else if (what == "checkpoint:written" || what == "checkpoint:renamed" ||
+             what == "checkpoint:committed") {
+    const std::string point = what.substr(what.find(':') + 1);
+    auto seen = std::make_shared<unsigned long>(0);
+    run_options.on_checkpoint = [seen, count, point](const std::string& at) {
+      if (at == "written")
+        ++*seen;
+      if (at == point && *seen == count)
+        std::raise(SIGKILL);
+    };
+  } else {
+    throw UsageError("QUANTACAL_TEST_KILL_AT = \"" + spec +
+                     "\": expected step:N or checkpoint:POINT:N (POINT: written, "
+                     "renamed or committed)");
+  }
 }
 
 /**
@@ -114,6 +163,8 @@ int run_command(const std::vector<std::string>& args) {
       run_options.communicator = MPI_COMM_WORLD;
       run_options.log = options.has("quiet") ? nullptr : &std::cout;
       run_options.throw_on_failure = false; // plot what there is first
+      run_options.resume = options.has("resume");
+      install_test_kill_point(run_options);
       const solver::RunResult result = solver::run_case(description, run_options);
       if (rank == 0)
         plot_cooling_curves(result, run_options.log);

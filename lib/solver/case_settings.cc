@@ -130,9 +130,10 @@ void read_time(const CaseReader& reader, const YAML::Node& root,
 void read_output(const CaseReader& reader, const YAML::Node& root,
                  CaseDescription& description) {
   const YAML::Node block = root["output"];
-  reader.check_keys(
-      block, "output",
-      {"folder", "interval", "fields", "plot", "probes", "crossing_temperatures"});
+  reader.check_keys(block, "output",
+                    {"folder", "interval", "fields", "plot", "probes",
+                     "crossing_temperatures", "checkpoint_interval",
+                     "checkpoint_wall_interval"});
   description.output.where = reader.where(block, "output");
   if (!block["folder"])
     reader.fail_missing(block, "output", "folder", "an output folder");
@@ -141,6 +142,14 @@ void read_output(const CaseReader& reader, const YAML::Node& root,
   if (block["interval"])
     description.output.interval = reader.positive(block["interval"], "output.interval",
                                                   dimension::time(), "a time");
+  if (block["checkpoint_interval"])
+    description.output.checkpoint_interval =
+        reader.positive(block["checkpoint_interval"], "output.checkpoint_interval",
+                        dimension::time(), "a simulated time (e.g. \"5 s\")");
+  if (block["checkpoint_wall_interval"])
+    description.output.checkpoint_wall_interval = reader.positive(
+        block["checkpoint_wall_interval"], "output.checkpoint_wall_interval",
+        dimension::time(), "a wall-clock time (e.g. \"10 min\")");
   if (block["fields"])
     description.output.fields = reader.boolean(block["fields"], "output.fields");
   if (block["plot"])

@@ -48,6 +48,21 @@ public:
    */
   void record(double time, double stored, RunResult& result) const;
 
+  /** The accumulated ledger (saved by a checkpoint). */
+  struct State {
+    double initial_stored = 0.0; ///< J
+    double shift = 0.0;          ///< J
+    double boundary_heat = 0.0;  ///< J
+    double source_heat = 0.0;    ///< J
+  };
+  State state() const { return {initial_stored_, shift_, boundary_heat_, source_heat_}; }
+  void restore(const State& state) {
+    initial_stored_ = state.initial_stored;
+    shift_ = state.shift;
+    boundary_heat_ = state.boundary_heat;
+    source_heat_ = state.source_heat;
+  }
+
 private:
   double initial_stored_ = 0.0;
   double shift_ = 0.0;

@@ -16,6 +16,12 @@
 
 namespace quantacal::solver::detail {
 
+/** The field files written so far (saved by a checkpoint; the entries are rank 0's). */
+struct FieldSeries {
+  unsigned int counter = 0; ///< the number NNNN of the next fields-NNNN.pvtu
+  std::vector<std::pair<double, std::string>> series; ///< fields.pvd entries
+};
+
 template <int dim>
 class FieldWriter {
 public:
@@ -31,6 +37,13 @@ public:
    * files to result.written_files and the time to result.timings.output.
    */
   void write(const Vector& temperature, double time, RunResult& result);
+
+  using State = FieldSeries;
+  State state() const { return {counter_, series_}; }
+  void restore(const State& state) {
+    counter_ = state.counter;
+    series_ = state.series;
+  }
 
 private:
   const std::string folder_;

@@ -147,7 +147,8 @@ void check_axisymmetric(const CaseDescription& description,
 
 template <int dim>
 void build_mesh(const CaseDescription& description,
-                parallel::distributed::Triangulation<dim>& triangulation) {
+                parallel::distributed::Triangulation<dim>& triangulation,
+                const std::string& saved_forest) {
   const MeshSpec& mesh = description.mesh;
   if (mesh.kind == MeshSpec::Kind::gmsh)
     read_gmsh_file(description, triangulation);
@@ -158,7 +159,12 @@ void build_mesh(const CaseDescription& description,
   if (mesh.kind != MeshSpec::Kind::gmsh)
     for (const auto& cell : triangulation.active_cell_iterators())
       cell->set_material_id(static_cast<types::material_id>(mesh.material_id));
-  triangulation.refine_global(mesh.refinements);
+  // the refinement: global, or as saved by a checkpoint (material ids, boundary
+  // and manifold ids are inherited from the coarse cells either way)
+  if (saved_forest.empty())
+    triangulation.refine_global(mesh.refinements);
+  else
+    triangulation.load(saved_forest);
   if (mesh.kind != MeshSpec::Kind::gmsh && !mesh.regions.empty())
     assign_regions(mesh, triangulation);
   if (description.geometry == Geometry::axisymmetric)
@@ -182,9 +188,9 @@ MeshIds find_mesh_ids(const parallel::distributed::Triangulation<dim>& triangula
 }
 
 template void build_mesh<2>(const CaseDescription&,
-                            parallel::distributed::Triangulation<2>&);
+                            parallel::distributed::Triangulation<2>&, const std::string&);
 template void build_mesh<3>(const CaseDescription&,
-                            parallel::distributed::Triangulation<3>&);
+                            parallel::distributed::Triangulation<3>&, const std::string&);
 template MeshIds find_mesh_ids<2>(const parallel::distributed::Triangulation<2>&);
 template MeshIds find_mesh_ids<3>(const parallel::distributed::Triangulation<3>&);
 

@@ -9,6 +9,7 @@
 #include <deal.II/distributed/tria.h>
 
 #include <set>
+#include <string>
 
 namespace quantacal::solver::detail {
 
@@ -23,12 +24,18 @@ struct MeshIds {
  * their material ids (mesh.material_id, then mesh.regions by cell centre; the
  * physical tags of a Gmsh file) and boundary faces their boundary ids
  * (docs/cases.md lists them per generator).
+ * @param saved_forest empty: refine the coarse mesh mesh.refinements times; else
+ *        the file a checkpoint saved the refined mesh to
+ *        (parallel::distributed::Triangulation::save), loaded onto the coarse mesh
+ *        (on any number of ranks), with the data attached to it for
+ *        SolutionTransfer::deserialize
  * @throws InputError at mesh.file for a missing or unreadable Gmsh file, at mesh
  *         for an axisymmetric mesh with r < 0
  */
 template <int dim>
 void build_mesh(const CaseDescription& description,
-                dealii::parallel::distributed::Triangulation<dim>& triangulation);
+                dealii::parallel::distributed::Triangulation<dim>& triangulation,
+                const std::string& saved_forest = "");
 
 /** The ids present in @p triangulation (collective over its communicator). */
 template <int dim>

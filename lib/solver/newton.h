@@ -2,7 +2,7 @@
 // Internal: the solve of one implicit stage, M(T) - known - beta h F(T) = 0, by
 // Newton's method with the consistent Jacobian (assembly.h), kept between
 // iterations, stages and steps while it still contracts the residual fast (a chord
-// method, docs/theory.md "Newton with a kept Jacobian"). Each linear system is
+// method, docs/cases.md "Newton with a kept Jacobian"). Each linear system is
 // solved by GMRES preconditioned with Trilinos ML AMG (the Jacobian is not
 // symmetric), the AMG hierarchy built with the Jacobian. A step that raises the
 // residual makes a kept Jacobian be rebuilt; with a fresh one it is halved up to
@@ -50,7 +50,12 @@ public:
   StageResult solve(Vector& temperature, const Stage& stage, Vector& stored_energy,
                     Vector& heat_flow);
 
-  /** Forgets the kept Jacobian (the next stage assembles a new one). */
+  /**
+   * Forgets the kept Jacobian (the next stage assembles a new one). A checkpoint
+   * calls it: a resumed run starts without a Jacobian, so the uninterrupted run
+   * drops its own there too, and both take the same path (docs/cases.md,
+   * "Checkpoints and --resume").
+   */
   void forget_jacobian() { have_jacobian_ = false; }
 
 private:

@@ -7,13 +7,17 @@
 //            materials (MaterialField), the discretization (discretization.h)
 //            and the probes (probes.h);
 //   start    the initial field, its assembly (assembly.h), the first ledger row
-//            (energy_ledger.h) and outputs;
+//            (energy_ledger.h) and outputs; or, resuming, the state of the last
+//            checkpoint (checkpoint.h);
 //   advance  TR-BDF2 steps (time_stepper.h, each stage a Newton solve, newton.h)
-//            under the step-size control (step_control.h) until the end time;
+//            under the step-size control (step_control.h) until the end time,
+//            with a checkpoint where one is due;
 //   finish   the final files (result_files.h, field_output.h) and the closing
 //            lines of the log (run_log.h).
 #include "assembly.h"
 #include "case_errors.h"
+#include "case_fingerprint.h"
+#include "checkpoint.h"
 #include "discretization.h"
 #include "energy_ledger.h"
 #include "field_output.h"
@@ -57,12 +61,18 @@ private:
   void prepare_output_folder() const;
   void set_up();
   void start();
+  double restore();
   bool advance(double& time);
   bool retry_or_stop(double time, double step);
   void accept(const StepPlan& plan, const StepHeat& heat, double error, double& time);
   void finish(double time);
   void record(double time, double stored);
   void write_tables(bool final_write);
+  bool checkpoints_enabled() const;
+  bool checkpoint_due(double time) const;
+  void write_checkpoint_now(double time);
+  /** Wall time of this run so far, with the sessions before a resume, s. */
+  double wall_seconds() const { return previous_wall_ + seconds_since(start_); }
 
   const CaseDescription& description_;
   const RunOptions& options_;
@@ -83,13 +93,24 @@ private:
   EnergyLedger ledger_;
   Vector ghosted_temperature_;
   std::string last_failure_;
+  // checkpoints (checkpoint.h)
+  std::unique_ptr<LoadedCheckpoint> resume_from_; ///< set when resuming, until restored
+  std::vector<FingerprintSection> fingerprint_;   ///< of the case and its materials
+  unsigned int checkpoint_index_ = 0;             ///< of the last one written
+  double next_checkpoint_time_ = std::numeric_limits<double>::infinity(); ///< s
+  Clock::time_point last_checkpoint_wall_;
+  double previous_wall_ = 0.0; ///< wall time of the sessions before a resume, s
 };
 
 template <int dim>
 CaseRun<dim>::CaseRun(const CaseDescription& description, const RunOptions& options)
     : description_(description), options_(options), writing_(options.write_output),
       start_(Clock::now()), discretization_(description, options.communicator),
-      log_(options, discretization_.rank, start_), control_(description) {}
+      log_(options, discretization_.rank, start_), control_(description),
+      last_checkpoint_wall_(start_) {
+  if (description.output.checkpoint_interval > 0)
+    next_checkpoint_time_ = description.output.checkpoint_interval;
+}
 
 // Rank 0 checks the folder; if it cannot be written, every rank raises the same error.
 template <int dim>
@@ -112,9 +133,18 @@ void CaseRun<dim>::prepare_output_folder() const {
 
 template <int dim>
 void CaseRun<dim>::set_up() {
-  build_mesh(description_, discretization_.triangulation);
+  build_mesh(description_, discretization_.triangulation,
+             resume_from_ ? resume_from_->forest : std::string());
   const MeshIds ids = find_mesh_ids(discretization_.triangulation);
   const MaterialBinding materials = bind_materials(description_, ids, log_);
+  if (checkpoints_enabled() || resume_from_) {
+    std::map<unsigned int, MaterialPtr> bound;
+    for (const auto& [id, material] : materials.materials)
+      bound[id] = material;
+    fingerprint_ = case_fingerprint(description_, bound);
+    if (resume_from_)
+      check_fingerprint(description_, *resume_from_, fingerprint_, true);
+  }
   initial_temperatures_ = materials.initial_temperatures;
   field_ = fe::MaterialField<dim>(materials.materials);
   std::map<types::material_id, double> energy_shift;
@@ -165,6 +195,46 @@ void CaseRun<dim>::start() {
   result_.timings.setup = seconds_since(start_);
   fields_->write(ghosted_temperature_, 0.0, result_);
   write_tables(false);
+}
+
+// The state of the last checkpoint (instead of start()): the level vectors read back
+// onto the loaded mesh, the stepper, control, ledger, watch, field series and the
+// histories; the probe and energy files are rewritten as of the checkpoint, so
+// rows the interrupted run wrote after it are replaced, not repeated.
+template <int dim>
+double CaseRun<dim>::restore() {
+  const LoadedCheckpoint& loaded = *resume_from_;
+  const RunState& state = loaded.state;
+  if (state.result.probe_names != result_.probe_names)
+    throw std::logic_error("checkpoint probes differ from the case's (" + loaded.record +
+                           ")");
+  read_checkpoint_vectors(discretization_, stepper_->level_vectors());
+  stepper_->restore(state.stepper);
+  control_.restore(state.control);
+  ledger_.restore(state.ledger);
+  transformations_->restore(state.transformations);
+  fields_->restore(state.fields);
+  result_.times = state.result.times;
+  result_.probe_temperatures = state.result.probe_temperatures;
+  result_.energy = state.result.energy;
+  result_.worst_relative_imbalance = state.result.worst_relative_imbalance;
+  result_.steps = state.result.steps;
+  result_.written_files = state.result.written_files;
+  const double setup = seconds_since(start_);
+  result_.timings = state.result.timings;
+  result_.timings.setup += setup;
+  previous_wall_ = state.wall_seconds;
+  checkpoint_index_ = state.index;
+  next_checkpoint_time_ = state.next_checkpoint_time;
+  ghosted_temperature_ = stepper_->temperature();
+  std::ostringstream line;
+  line << "resumed from " << loaded.folder << " at t = " << format_double(state.time)
+       << " s after " << state.result.steps.n_steps << " accepted steps (written on "
+       << loaded.ranks << (loaded.ranks == 1 ? " rank" : " ranks") << ")";
+  log_.line(line.str());
+  write_tables(false);
+  resume_from_.reset();
+  return state.time;
 }
 
 template <int dim>
@@ -250,14 +320,74 @@ void CaseRun<dim>::accept(const StepPlan& plan, const StepHeat& heat, double err
     steps.smallest_step = plan.step;
   steps.largest_step = std::max(steps.largest_step, plan.step);
   record(time, stepper_->sums().stored);
-  if (options_.on_step)
-    options_.on_step(time, plan.step);
   const bool output_due = control_.is_output_time(time);
   if (output_due) {
     fields_->write(ghosted_temperature_, time, result_);
     write_tables(false);
   }
+  if (checkpoint_due(time))
+    write_checkpoint_now(time);
+  if (options_.on_step)
+    options_.on_step(time, plan.step);
   log_.progress(time, plan.step, description_.time.end, steps, output_due);
+}
+
+template <int dim>
+bool CaseRun<dim>::checkpoints_enabled() const {
+  return description_.output.checkpoint_interval > 0 ||
+         description_.output.checkpoint_wall_interval > 0;
+}
+
+// Due after the first accepted step at or past the next multiple of
+// output.checkpoint_interval, or once output.checkpoint_wall_interval of wall time
+// has passed (rank 0's clock decides for all); never at the end time.
+template <int dim>
+bool CaseRun<dim>::checkpoint_due(double time) const {
+  if (!writing_ || !checkpoints_enabled() || control_.finished(time))
+    return false;
+  bool due = time >= next_checkpoint_time_ * (1 - 1e-12);
+  const double wall = description_.output.checkpoint_wall_interval;
+  if (wall > 0) {
+    int wall_due =
+        discretization_.rank == 0 && seconds_since(last_checkpoint_wall_) >= wall;
+    wall_due = Utilities::MPI::broadcast(discretization_.communicator, wall_due, 0);
+    due = due || wall_due;
+  }
+  return due;
+}
+
+// A resumed run starts without a kept Jacobian (newton.h); dropping it here too makes
+// the uninterrupted run take the same path, so both give the same numbers.
+template <int dim>
+void CaseRun<dim>::write_checkpoint_now(double time) {
+  const auto begin = Clock::now();
+  stage_solver_->forget_jacobian();
+  const double interval = description_.output.checkpoint_interval;
+  if (interval > 0)
+    next_checkpoint_time_ = interval * (std::floor(time / interval * (1 + 1e-12)) + 1);
+  ++checkpoint_index_;
+  RunState state;
+  state.time = time;
+  state.index = checkpoint_index_;
+  state.next_checkpoint_time = next_checkpoint_time_;
+  state.wall_seconds = wall_seconds();
+  state.control = control_.state();
+  state.ledger = ledger_.state();
+  state.stepper = stepper_->state();
+  state.transformations = transformations_->reduced_state();
+  state.fields = fields_->state();
+  state.result.probe_names = result_.probe_names;
+  state.result.times = result_.times;
+  state.result.probe_temperatures = result_.probe_temperatures;
+  state.result.energy = result_.energy;
+  state.result.worst_relative_imbalance = result_.worst_relative_imbalance;
+  state.result.steps = result_.steps;
+  state.result.timings = result_.timings;
+  state.result.written_files = result_.written_files;
+  write_checkpoint(description_, discretization_, stepper_->level_vectors(), state,
+                   fingerprint_, options_.on_checkpoint);
+  last_checkpoint_wall_ = Clock::now();
+  result_.timings.output += seconds_since(begin);
 }
 
 template <int dim>
@@ -272,7 +402,7 @@ void CaseRun<dim>::write_tables(bool final_write) {
     result_.written_files.push_back((folder / "probes.csv").string());
     result_.written_files.push_back((folder / "energy.csv").string());
     result_.written_files.push_back((folder / "summary.yaml").string());
-    result_.timings.total = seconds_since(start_);
+    result_.timings.total = wall_seconds();
     write_file_atomically((folder / "summary.yaml").string(),
                           summary_yaml(description_, result_));
   }
@@ -293,7 +423,7 @@ void CaseRun<dim>::finish(double time) {
   result_.crossings = find_crossings(result_, description_.output.crossing_temperatures);
   result_.warnings = transformations_->warnings();
   fields_->write(ghosted_temperature_, time, result_);
-  result_.timings.total = seconds_since(start_);
+  result_.timings.total = wall_seconds();
   write_tables(true);
   if (writing_ && description_.output.plot && discretization_.rank == 0)
     result_.plot_script = write_plot_script(description_.output.folder, result_,
@@ -306,11 +436,22 @@ void CaseRun<dim>::finish(double time) {
 template <int dim>
 RunResult CaseRun<dim>::run() {
   result_.n_ranks = discretization_.n_ranks;
+  if (options_.resume) {
+    // everything is checked before anything is written: the checkpoint's files,
+    // then the case against its fingerprint (the materials once they are bound)
+    resume_from_ = std::make_unique<LoadedCheckpoint>(
+        read_checkpoint(description_, discretization_.communicator));
+    check_fingerprint(description_, *resume_from_, case_fingerprint(description_, {}),
+                      false);
+  }
   prepare_output_folder();
   set_up();
   log_.header(description_, result_, discretization_.fe.degree, writing_);
-  start();
   double time = 0.0;
+  if (resume_from_)
+    time = restore();
+  else
+    start();
   while (!control_.finished(time))
     if (!advance(time))
       break;

@@ -57,6 +57,23 @@ public:
   double previous_step() const { return previous_step_; }
   bool has_previous_step() const { return has_previous_step_; }
 
+  /** What the control carries from one step to the next (saved by a checkpoint). */
+  struct State {
+    double step = 0.0;          ///< the next proposal, s
+    double previous_step = 0.0; ///< s
+    bool has_previous_step = false;
+    unsigned int consecutive_rejections = 0;
+  };
+  State state() const {
+    return {step_, previous_step_, has_previous_step_, consecutive_rejections_};
+  }
+  void restore(const State& state) {
+    step_ = state.step;
+    previous_step_ = state.previous_step;
+    has_previous_step_ = state.has_previous_step;
+    consecutive_rejections_ = state.consecutive_rejections;
+  }
+
 private:
   const TimeSpec& spec_;
   std::set<double> stops_;        ///< output times, source switches, the end

@@ -10,7 +10,16 @@
 #include "newton.h"
 #include "step_control.h"
 
+#include <vector>
+
 namespace quantacal::solver::detail {
+
+/** The scalars the next step needs besides the level vectors (TimeStepper::state). */
+struct StepperState {
+  AssembledSums sums;         ///< at the current level
+  double previous_step = 0.0; ///< h of the last accepted step, s
+  bool has_previous = false;  ///< the previous level vector holds the level before
+};
 
 template <int dim>
 class TimeStepper {
@@ -50,6 +59,23 @@ public:
   const Vector& temperature() const { return current_; }
   /** The sums assembled at the current level. */
   const AssembledSums& sums() const { return current_sums_; }
+
+  using State = StepperState;
+  State state() const { return {current_sums_, previous_step_, has_previous_}; }
+  void restore(const State& state) {
+    current_sums_ = state.sums;
+    previous_step_ = state.previous_step;
+    has_previous_ = state.has_previous;
+  }
+  /**
+   * The vectors the next step needs (owned entries), in a fixed order: the current
+   * level, the previous one (for the extrapolated guesses and the error estimate),
+   * and the stored energy and heat flow assembled at the current level. A
+   * checkpoint saves them and a resumed run reads them back in place.
+   */
+  std::vector<Vector*> level_vectors() {
+    return {&current_, &previous_, &current_energy_, &current_flow_};
+  }
 
 private:
   /** The quadratic (or linear) extrapolation of error_estimate() into @p out. */

@@ -112,6 +112,31 @@ std::vector<std::string> TransformationWatch<dim>::warnings() const {
   return out;
 }
 
+template <int dim>
+std::vector<std::pair<double, double>> TransformationWatch<dim>::reduced_state() const {
+  std::vector<std::pair<double, double>> out;
+  const MPI_Comm comm = discretization_.communicator;
+  for (const Watched& x : watched_) {
+    const double fastest = Utilities::MPI::max(x.fastest, comm);
+    const double first = Utilities::MPI::min(
+        x.first_time < 0.0 ? std::numeric_limits<double>::infinity() : x.first_time,
+        comm);
+    out.emplace_back(fastest, std::isfinite(first) ? first : -1.0);
+  }
+  return out;
+}
+
+template <int dim>
+void TransformationWatch<dim>::restore(
+    const std::vector<std::pair<double, double>>& state) {
+  AssertThrow(state.size() == watched_.size(),
+              ExcMessage("the checkpoint watches another number of transformations"));
+  for (std::size_t w = 0; w < watched_.size(); ++w) {
+    watched_[w].fastest = state[w].first;
+    watched_[w].first_time = state[w].second;
+  }
+}
+
 template class TransformationWatch<2>;
 template class TransformationWatch<3>;
 

@@ -14,6 +14,7 @@
 #include <cstdint>
 #include <map>
 #include <string>
+#include <utility>
 #include <vector>
 
 namespace quantacal::solver::detail {
@@ -32,6 +33,15 @@ public:
 
   /** The warnings (same on all ranks; collective). */
   std::vector<std::string> warnings() const;
+
+  /**
+   * Per watched transformation, the fastest rate (K/s, 0: none) and the time of
+   * the first fast crossing (s, -1: none), reduced over the ranks (collective):
+   * what a checkpoint saves.
+   */
+  std::vector<std::pair<double, double>> reduced_state() const;
+  /** Sets every rank's record to @p state (from reduced_state()). */
+  void restore(const std::vector<std::pair<double, double>>& state);
 
 private:
   struct Watched {

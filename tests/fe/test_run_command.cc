@@ -133,8 +133,9 @@ TEST(RunCommand, BadValuesAndArgumentsAreRejected) {
 TEST(RunCommand, HelpListsEveryOption) {
   const auto r = run_quantacal({"run", "--help"});
   EXPECT_EQ(r.exit_code, 0) << r.err;
-  for (const char* option : {"--output DIR", "--formulation F", "--degree P",
-                             "--no-fields", "--no-plot", "--quiet", "mpirun -np N"})
+  for (const char* option :
+       {"--output DIR", "--formulation F", "--degree P", "--no-fields", "--no-plot",
+        "--quiet", "--resume", "mpirun -np N"})
     EXPECT_NE(r.out.find(option), std::string::npos) << option << "\n" << r.out;
 }
 

@@ -165,6 +165,12 @@ struct OutputSpec {
   bool plot = true;
   std::vector<Probe> probes;
   std::vector<double> crossing_temperatures; ///< K
+  /// simulated time between checkpoints, s (0 = none): a checkpoint is written after
+  /// the first accepted step at or past each multiple (docs/cases.md, "Checkpoints")
+  double checkpoint_interval = 0.0;
+  /// wall-clock time between checkpoints, s (0 = none), counted from the start of
+  /// this session or its last checkpoint
+  double checkpoint_wall_interval = 0.0;
   CaseLocation where;
 };
 

@@ -121,8 +121,25 @@ struct RunOptions {
   bool progress = true;        ///< one-line progress display when `log` is a terminal
   bool throw_on_failure =
       true; ///< a run that stops early throws NumericalError after writing
-  /** Called on every rank after each accepted step: (time s, step s). */
+  /**
+   * Called on every rank after each accepted step and after the outputs and the
+   * checkpoint due at it: (time s, step s).
+   */
   std::function<void(double, double)> on_step;
+  /**
+   * Continue from the last complete checkpoint in the output folder
+   * (checkpoint.yaml) instead of starting at t = 0; the histories up to it are
+   * restored and the result files continued without repeated rows.
+   */
+  bool resume = false;
+  /**
+   * Called on every rank at the named points of each checkpoint write:
+   * "written" (every file is in the temporary folder checkpoint-NNNNNN.tmp),
+   * "renamed" (the folder has its final name, checkpoint.yaml still names the
+   * previous one) and "committed" (checkpoint.yaml names the new one). For tests
+   * that interrupt a run there.
+   */
+  std::function<void(const std::string&)> on_checkpoint;
 };
 
 /**
@@ -139,6 +156,13 @@ struct RunOptions {
  * @throws InputError for inconsistencies found against the mesh (boundary id or
  *         material id not in the mesh, a material id without a card, a probe
  *         outside the mesh, a missing mesh file), with the case file location
+ * With output.checkpoint_interval or output.checkpoint_wall_interval, checkpoints
+ * are written into the output folder (checkpoint.yaml and the folder
+ * checkpoint-NNNNNN it names); RunOptions::resume continues from the last one.
+ *
+ * @throws InputError with options.resume: no checkpoint, a damaged one (the file
+ *         and what is wrong), or one written for another case (located at the
+ *         section of the case file that differs); nothing is written then
  * @throws NumericalError if the run stops early and throw_on_failure (outputs
  *         written so far are complete files): stopped_run_error()
  * @throws std::ios_base::failure if the output folder cannot be written
