@@ -29,32 +29,55 @@ Dimension dim(int kg, int m, int s, int k, int mol, int a = 0) {
   return d;
 }
 
+/// Thrown by the exponent arithmetic below, turned into an InputError by UnitParser.
+struct ExponentOutOfRange {};
+
+/// The largest power of a base unit a unit expression may reach (fuzz_units found
+/// "m^1937919210 m^1937919210" overflowing int): far beyond any physical unit.
+constexpr long long max_unit_exponent = 1000;
+
+int checked_exponent(long long e) {
+  if (e > max_unit_exponent || e < -max_unit_exponent)
+    throw ExponentOutOfRange{};
+  return static_cast<int>(e);
+}
+
 Dimension operator*(const Dimension& a, const Dimension& b) {
   Dimension r;
   for (std::size_t i = 0; i < r.exponents.size(); ++i)
-    r.exponents[i] = a.exponents[i] + b.exponents[i];
+    r.exponents[i] =
+        checked_exponent(static_cast<long long>(a.exponents[i]) + b.exponents[i]);
   return r;
 }
 
 Dimension power(const Dimension& a, int p) {
   Dimension r;
   for (std::size_t i = 0; i < r.exponents.size(); ++i)
-    r.exponents[i] = a.exponents[i] * p;
+    r.exponents[i] = checked_exponent(static_cast<long long>(a.exponents[i]) * p);
   return r;
 }
 
 struct UnitSymbol {
   double scale;
   Dimension dimension;
-  bool is_celsius;
+  double offset; ///< non-zero for degC and degF: read alone, (x + offset) * scale is K
 };
+
+/// 0 K on the Fahrenheit scale is -459.67 degF, and one degF is 5/9 K (the
+/// definition of the Fahrenheit scale from the kelvin, NIST SP 811 B.8).
+constexpr double fahrenheit_offset = 459.67;
+constexpr double fahrenheit_degree = 5.0 / 9.0;
+
+/// The thermochemical calorie, 4.184 J exactly (ISO 80000-5; NIST SP 811 B.8
+/// "calorie_th"), the calorie of the older calorimetry literature.
+constexpr double thermochemical_calorie = 4.184;
 
 // The closed list of unit symbols (docs/cards.md, "Units").
 const std::map<std::string, UnitSymbol>& unit_symbols() {
   static const std::map<std::string, UnitSymbol> symbols = [] {
     std::map<std::string, UnitSymbol> s;
     const auto add = [&s](const std::string& name, double scale, Dimension d) {
-      s.emplace(name, UnitSymbol{scale, d, false});
+      s.emplace(name, UnitSymbol{scale, d, 0.0});
     };
     // Prefixed families: symbol, dimension, allowed prefixes.
     const std::map<char, double> prefix = {{'n', 1e-9}, {'u', 1e-6}, {'m', 1e-3},
@@ -76,12 +99,16 @@ const std::map<std::string, UnitSymbol>& unit_symbols() {
     family("Pa", 1.0, dim(1, -1, -2, 0, 0), "kMG");     // Pa kPa MPa GPa
     family("N", 1.0, dim(1, 1, -2, 0, 0), "k");         // N kN
     family("Ohm", 1.0, dim(1, 2, -3, 0, 0, -2), "num"); // nOhm uOhm mOhm Ohm
+    // cal kcal: the thermochemical calorie
+    family("cal", thermochemical_calorie, dim(1, 2, -2, 0, 0), "k");
     add("min", 60.0, dim(0, 0, 1, 0, 0));
     add("h", 3600.0, dim(0, 0, 1, 0, 0));
     add("L", 1e-3, dim(0, 3, 0, 0, 0));
     add("bar", 1e5, dim(1, -1, -2, 0, 0));
     add("1", 1.0, dim(0, 0, 0, 0, 0));
-    s.emplace("degC", UnitSymbol{1.0, dim(0, 0, 0, 1, 0), true});
+    s.emplace("degC", UnitSymbol{1.0, dim(0, 0, 0, 1, 0), celsius_offset});
+    s.emplace("degF",
+              UnitSymbol{fahrenheit_degree, dim(0, 0, 0, 1, 0), fahrenheit_offset});
     return s;
   }();
   return symbols;
@@ -93,7 +120,12 @@ public:
   explicit UnitParser(const std::string& text) : text_(text) {}
 
   UnitSymbol parse() {
-    UnitSymbol result = product();
+    UnitSymbol result;
+    try {
+      result = product();
+    } catch (const ExponentOutOfRange&) {
+      fail("a power beyond " + std::to_string(max_unit_exponent) + " of a base unit");
+    }
     skip_space();
     if (pos_ != text_.size())
       fail("unexpected '" + std::string(1, text_[pos_]) + "'");
@@ -101,8 +133,29 @@ public:
   }
 
   int n_factors() const { return n_factors_; }
-  bool only_celsius() const {
-    return n_factors_ == 1 && n_celsius_ == 1 && !powered_celsius_;
+  /// The offset of degC or degF written alone (an absolute temperature), else 0.
+  double only_offset() const {
+    return n_factors_ == 1 && n_offset_ == 1 && !powered_offset_ ? offset_ : 0.0;
+  }
+  /// The symbols with their net powers, merged, in written order.
+  std::vector<std::pair<std::string, int>> factors() const {
+    std::vector<std::pair<std::string, int>> merged;
+    for (const auto& leaf : leaves_) {
+      // (not a structured binding: C++17 cannot capture one in the lambda; clang rejects
+      // it)
+      const std::string& symbol = leaf.first;
+      const int power = leaf.second;
+      const auto it = std::find_if(merged.begin(), merged.end(),
+                                   [&](const auto& f) { return f.first == symbol; });
+      if (it == merged.end())
+        merged.emplace_back(symbol, power);
+      else
+        it->second += power;
+    }
+    merged.erase(std::remove_if(merged.begin(), merged.end(),
+                                [](const auto& f) { return f.second == 0; }),
+                 merged.end());
+    return merged;
   }
 
 private:
@@ -120,7 +173,7 @@ private:
   }
 
   UnitSymbol product() {
-    UnitSymbol acc{1.0, Dimension{}, false};
+    UnitSymbol acc{1.0, Dimension{}, 0.0};
     bool first = true;
     while (true) {
       skip_space();
@@ -137,7 +190,11 @@ private:
         ++pos_;
         skip_space();
       }
+      const std::size_t first_leaf = leaves_.size();
       const UnitSymbol f = factor();
+      if (sign < 0)
+        for (std::size_t i = first_leaf; i < leaves_.size(); ++i)
+          leaves_[i].second = -leaves_[i].second;
       acc.scale *= sign > 0 ? f.scale : 1.0 / f.scale;
       acc.dimension = acc.dimension * power(f.dimension, sign);
       first = false;
@@ -150,14 +207,20 @@ private:
   UnitSymbol factor() {
     skip_space();
     UnitSymbol base;
-    bool celsius = false;
+    bool offset_scale = false;
+    const std::size_t first_leaf = leaves_.size();
     if (pos_ < text_.size() && text_[pos_] == '(') {
+      // Each level is two stack frames: a bound keeps "((((..." from
+      // overflowing the stack.
+      if (++depth_ > max_depth)
+        fail("parentheses nested deeper than " + std::to_string(max_depth));
       ++pos_;
       base = product();
       skip_space();
       if (pos_ >= text_.size() || text_[pos_] != ')')
         fail("missing ')'");
       ++pos_;
+      --depth_;
     } else {
       const std::size_t start = pos_;
       while (pos_ < text_.size() && is_symbol_char(text_[pos_]))
@@ -171,10 +234,13 @@ private:
         fail("unknown unit '" + symbol + "'" + did_you_mean(symbol, unit_names()) +
              " (the list of units is in docs/cards.md)");
       base = it->second;
-      celsius = base.is_celsius;
+      offset_scale = base.offset != 0.0;
       ++n_factors_;
-      if (celsius)
-        ++n_celsius_;
+      leaves_.emplace_back(symbol, 1);
+      if (offset_scale) {
+        ++n_offset_;
+        offset_ = base.offset;
+      }
     }
     skip_space();
     if (pos_ < text_.size() && text_[pos_] == '^') {
@@ -191,10 +257,12 @@ private:
       pos_ = static_cast<std::size_t>(r.ptr - text_.data());
       base.scale = std::pow(base.scale, exponent);
       base.dimension = power(base.dimension, exponent);
-      if (celsius)
-        powered_celsius_ = true;
+      for (std::size_t i = first_leaf; i < leaves_.size(); ++i)
+        leaves_[i].second *= exponent;
+      if (offset_scale)
+        powered_offset_ = true;
     }
-    base.is_celsius = false;
+    base.offset = 0.0;
     return base;
   }
 
@@ -208,8 +276,12 @@ private:
   const std::string& text_;
   std::size_t pos_ = 0;
   int n_factors_ = 0;
-  int n_celsius_ = 0;
-  bool powered_celsius_ = false;
+  int n_offset_ = 0;
+  bool powered_offset_ = false;
+  static constexpr int max_depth = 16; ///< of nested parentheses
+  int depth_ = 0;
+  double offset_ = 0.0;
+  std::vector<std::pair<std::string, int>> leaves_; ///< (symbol, power) as written
 };
 
 } // namespace
@@ -285,6 +357,27 @@ Dimension length() {
   return dim(0, 1, 0, 0, 0);
 }
 } // namespace dimension
+
+std::string describe_dimension(const Dimension& d) {
+  return detail::dimension_description(d);
+}
+
+Unit parse_unit(const std::string& text) {
+  UnitParser parser(text);
+  const UnitSymbol u = parser.parse();
+  Unit unit;
+  unit.scale = u.scale;
+  unit.dimension = u.dimension;
+  unit.factors = parser.factors();
+  // degC or degF alone is an absolute temperature; anywhere else (J/kg/degC,
+  // 1/degC, degC^2) a degree interval.
+  const double offset = parser.only_offset();
+  if (offset != 0.0 && u.dimension == dimension::temperature()) {
+    unit.offset = offset;
+    unit.is_temperature_offset = true;
+  }
+  return unit;
+}
 
 namespace detail {
 
@@ -366,16 +459,15 @@ Quantity parse_quantity(const std::string& text) {
   }
   // A unit that starts with a letter must be separated from the number only
   // by optional blanks; "343K" and "343 K" both read.
-  UnitParser parser(unit);
-  UnitSymbol u;
+  Unit u;
   try {
-    u = parser.parse();
+    u = parse_unit(unit);
   } catch (const std::invalid_argument& e) {
     throw InputError::argument("", "", "", "\"" + text + "\": " + e.what());
   }
   q.dimension = u.dimension;
-  if (parser.only_celsius()) {
-    q.value = number + celsius_offset;
+  if (u.is_temperature_offset) {
+    q.value = (number + u.offset) * u.scale;
     q.is_temperature_offset = true;
   } else {
     q.value = number * u.scale;

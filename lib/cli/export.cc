@@ -5,6 +5,7 @@
 #include "command_registry.h"
 #include "export_nodes.h"
 #include "options.h"
+#include "output_units.h"
 
 #include <quantacal/cards/card.h>
 #include <quantacal/common/exceptions.h>
@@ -18,6 +19,7 @@
 #include <cmath>
 #include <cstdio>
 #include <iostream>
+#include <map>
 #include <string>
 #include <vector>
 
@@ -36,7 +38,7 @@ OptionParser export_parser() {
   OptionParser parser(
       "export",
       "CARD --to FILE.csv|FILE.json|FILE.xml [--tolerance PERCENT] "
-      "[--basis mass|mole|volume] [--from K] [--until K]",
+      "[--basis mass|mole|volume] [--unit Q=UNIT,...] [--from K] [--until K]",
       "Writes the specific heat c_p(T), the enthalpy H(T), the thermal conductivity\n"
       "k(T) and the density of the material described by CARD to FILE, for programs\n"
       "that read property tables and interpolate linearly between rows.\n"
@@ -66,7 +68,20 @@ OptionParser export_parser() {
       "The file is written atomically (a temporary file renamed over FILE) and only\n"
       "when every node could be computed.\n"
       "\n"
-      "Temperatures are in K; \"300 K\" and \"26.85 degC\" are accepted too.");
+      "With --unit, the named columns (T, cp, H, k, rho; e is accepted for H and\n"
+      "density for rho) are written in the units given, and the CSV header, the JSON\n"
+      "units and the MatML Units name them, e.g. --unit T=degC,cp=J/g/K,H=J/g gives\n"
+      "  T_degC,cp_J_per_g_K,H_J_per_g,k_W_per_m_K,rho_kg_per_m3\n"
+      "Each unit must fit its quantity on the chosen basis. degC and degF alone are\n"
+      "absolute temperatures; inside a unit they are degree intervals (J/g/degC is\n"
+      "J/g/K). The tolerance is relative and linear interpolation survives a change\n"
+      "of unit, so the guarantees hold unchanged; H and its stated bound are\n"
+      "converted with the H unit (when the units of c_p, T and H do not cancel, as\n"
+      "for cp=J/g/K with H=kJ/kg, the file states the factor between H and the\n"
+      "trapezoid sum of c_p).\n"
+      "\n"
+      "Temperatures of --from and --until are in K whatever --unit says;\n"
+      "\"300 K\" and \"26.85 degC\" are accepted too.");
   parser
       .add_value("to", "FILE",
                  "output file; its extension (.csv, .json, .xml) sets the "
@@ -76,6 +91,7 @@ OptionParser export_parser() {
                  "(default: 0.5%)")
       .add_value("basis", "BASIS", "basis of c_p and H: mass (default), mole or volume",
                  {"mass", "mole", "volume"})
+      .add_value("unit", "Q=UNIT,...", unit_option_help())
       .add_value("from", "K", "first temperature (default: lower end of the valid range)")
       .add_value("until", "K", "last temperature (default: upper end of the valid range)")
       .add_epilogue(exit_code_help());
@@ -94,17 +110,15 @@ const char* basis_name(Basis basis) {
   return basis == Basis::mole ? "mole" : basis == Basis::volume ? "volume" : "mass";
 }
 
-/// "kg", "mol" or "m3": what c_p and H are per.
-const char* per(Basis basis) {
-  return basis == Basis::mole ? "mol" : basis == Basis::volume ? "m3" : "kg";
-}
+/// The units the columns are written in, by quantity name (T, cp, H, k, rho).
+using Units = std::map<std::string, OutputUnit>;
 
-/// Units of c_p and H as text, e.g. "J/kg/K" and "J/kg".
-std::string capacity_unit(Basis basis) {
-  return basis == Basis::volume ? "J/m^3/K" : std::string("J/") + per(basis) + "/K";
-}
-std::string energy_unit(Basis basis) {
-  return basis == Basis::volume ? "J/m^3" : std::string("J/") + per(basis);
+/// @p values (SI) in @p unit.
+std::vector<double> in_unit(const std::vector<double>& values, const OutputUnit& unit) {
+  std::vector<double> out(values.size());
+  for (std::size_t i = 0; i < values.size(); ++i)
+    out[i] = unit.value(values[i]);
+  return out;
 }
 
 /// The output format from the extension of @p path.
@@ -194,7 +208,8 @@ struct Statements {
 };
 
 Statements statements(const Material& material, const std::string& card_path,
-                      const ExportTable& table, Basis basis) {
+                      const ExportTable& table, Basis basis, const Units& units) {
+  const OutputUnit& h_unit = units.at("H");
   Statements s;
   const double lo = table.temperature.front(), hi = table.temperature.back();
   s.card = "quantacal export of card " + material.name() + " (" + card_path +
@@ -221,17 +236,24 @@ Statements statements(const Material& material, const std::string& card_path,
       format_double(lo) + " K relative to the reference temperature " +
       format_double(material.data().reference_temperature) +
       " K. A solver that uses this c_p and this H conserves energy with them.";
-  s.enthalpy_bound_value = round_up_2(table.worst_enthalpy_difference);
-  const double relative =
-      table.enthalpy_range > 0.0 ? s.enthalpy_bound_value / table.enthalpy_range : 0.0;
+  // In the printed units, H steps by `factor` times the trapezoid sum of c_p over T.
+  const double factor = units.at("cp").scale * units.at("T").scale / units.at("H").scale;
+  if (std::fabs(factor - 1.0) > 1e-12)
+    s.enthalpy += " In the units of this file (c_p in " + units.at("cp").text +
+                  ", T in " + units.at("T").text + ", H in " + h_unit.text +
+                  ") H steps by " + format_double(factor) +
+                  " times the trapezoid sum of c_p over T.";
+  s.enthalpy_bound_value = round_up_2(h_unit.difference(table.worst_enthalpy_difference));
+  const double range = h_unit.difference(table.enthalpy_range);
+  const double relative = range > 0.0 ? s.enthalpy_bound_value / range : 0.0;
   s.enthalpy_bound = format(
       "|H - e_model| <= %s %s = %.2g %% of the model's range e(%s K) - e(%s K) = "
       "%.6g %s (H read as the integral of the linear c_p; measured at the nodes and "
       "the verification points, plus the most H can drift between two check "
       "points; worst at %.6g K; rounded up).",
-      format_double(s.enthalpy_bound_value).c_str(), energy_unit(basis).c_str(),
-      100.0 * relative, format_double(hi).c_str(), format_double(lo).c_str(),
-      table.enthalpy_range, energy_unit(basis).c_str(), table.worst_enthalpy_temperature);
+      format_double(s.enthalpy_bound_value).c_str(), h_unit.text.c_str(),
+      100.0 * relative, format_double(hi).c_str(), format_double(lo).c_str(), range,
+      h_unit.text.c_str(), table.worst_enthalpy_temperature);
   s.latent_heat = "Latent heat appears in c_p as a peak over the card's transition "
                   "width (nodes on both ends of every join), so H keeps it as a steep "
                   "rise over that width.";
@@ -246,8 +268,8 @@ Statements statements(const Material& material, const std::string& card_path,
 }
 
 std::string csv_text(const Material& material, const std::string& card_path,
-                     const ExportTable& table, Basis basis) {
-  const Statements s = statements(material, card_path, table, basis);
+                     const ExportTable& table, Basis basis, const Units& units) {
+  const Statements s = statements(material, card_path, table, basis, units);
   std::string out;
   out += "# " + s.card + "\n";
   out += "# card: " + one_line(material.name()) + "\n";
@@ -262,13 +284,16 @@ std::string csv_text(const Material& material, const std::string& card_path,
   out += "# H_definition: " + s.enthalpy + "\n";
   out += "# H_difference_bound: " + s.enthalpy_bound + "\n";
   out += "# latent_heat: " + s.latent_heat + "\n";
-  const std::string p = per(basis);
-  out += "T_K,cp_J_per_" + p + "_K,H_J_per_" + p + ",k_W_per_m_K,rho_kg_per_m3\n";
+  const OutputUnit &t = units.at("T"), &cp = units.at("cp"), &h = units.at("H"),
+                   &k = units.at("k"), &rho = units.at("rho");
+  out += "T_" + t.token + ",cp_" + cp.token + ",H_" + h.token + ",k_" + k.token +
+         ",rho_" + rho.token + "\n";
   for (std::size_t i = 0; i < table.temperature.size(); ++i)
-    out += format_double(table.temperature[i]) + "," + format_double(table.capacity[i]) +
-           "," + format_double(table.enthalpy[i]) + "," +
-           format_double(table.conductivity[i]) + "," + format_double(table.density[i]) +
-           "\n";
+    out += format_double(t.value(table.temperature[i])) + "," +
+           format_double(cp.value(table.capacity[i])) + "," +
+           format_double(h.value(table.enthalpy[i])) + "," +
+           format_double(k.value(table.conductivity[i])) + "," +
+           format_double(rho.value(table.density[i])) + "\n";
   return out;
 }
 
@@ -309,8 +334,8 @@ std::string json_array(const std::vector<double>& values) {
 }
 
 std::string json_text(const Material& material, const std::string& card_path,
-                      const ExportTable& table, Basis basis) {
-  const Statements s = statements(material, card_path, table, basis);
+                      const ExportTable& table, Basis basis, const Units& units) {
+  const Statements s = statements(material, card_path, table, basis, units);
   const auto number = [](double v) { return format_double(v); };
   std::string out = "{\n";
   out += "  \"format\": \"quantacal export\",\n";
@@ -350,18 +375,20 @@ std::string json_text(const Material& material, const std::string& card_path,
       "  \"enthalpy\": {\"definition\": " + json_string(s.enthalpy) +
       ", \"reference_temperature_K\": " + number(material.data().reference_temperature) +
       ", \"difference_from_model_bound\": " + number(s.enthalpy_bound_value) +
-      ", \"model_range\": " + number(table.enthalpy_range) +
+      ", \"model_range\": " + number(units.at("H").difference(table.enthalpy_range)) +
       ", \"statement\": " + json_string(s.enthalpy_bound) +
       ", \"latent_heat\": " + json_string(s.latent_heat) + "},\n";
-  out += "  \"units\": {\"T\": \"K\", \"cp\": " + json_string(capacity_unit(basis)) +
-         ", \"H\": " + json_string(energy_unit(basis)) +
-         ", \"k\": \"W/m/K\", \"density\": \"kg/m^3\"},\n";
+  out += "  \"units\": {\"T\": " + json_string(units.at("T").text) +
+         ", \"cp\": " + json_string(units.at("cp").text) +
+         ", \"H\": " + json_string(units.at("H").text) +
+         ", \"k\": " + json_string(units.at("k").text) +
+         ", \"density\": " + json_string(units.at("rho").text) + "},\n";
   out += "  \"columns\": {\n";
-  out += "    \"T\": " + json_array(table.temperature) + ",\n";
-  out += "    \"cp\": " + json_array(table.capacity) + ",\n";
-  out += "    \"H\": " + json_array(table.enthalpy) + ",\n";
-  out += "    \"k\": " + json_array(table.conductivity) + ",\n";
-  out += "    \"density\": " + json_array(table.density) + "\n";
+  out += "    \"T\": " + json_array(in_unit(table.temperature, units.at("T"))) + ",\n";
+  out += "    \"cp\": " + json_array(in_unit(table.capacity, units.at("cp"))) + ",\n";
+  out += "    \"H\": " + json_array(in_unit(table.enthalpy, units.at("H"))) + ",\n";
+  out += "    \"k\": " + json_array(in_unit(table.conductivity, units.at("k"))) + ",\n";
+  out += "    \"density\": " + json_array(in_unit(table.density, units.at("rho"))) + "\n";
   out += "  }\n}\n";
   return out;
 }
@@ -411,32 +438,21 @@ std::string xml_units(const std::string& name,
 }
 
 std::string xml_text(const Material& material, const std::string& card_path,
-                     const ExportTable& table, Basis basis) {
-  const Statements s = statements(material, card_path, table, basis);
+                     const ExportTable& table, Basis basis, const Units& units) {
+  const Statements s = statements(material, card_path, table, basis, units);
   struct Property {
     const char* id;
     const char* name;
-    const std::vector<double>* values;
-    std::string unit;
-    std::vector<std::pair<std::string, int>> factors;
+    std::vector<double> values; ///< in the unit below
+    const OutputUnit& unit;
   };
-  const std::vector<std::pair<std::string, int>> per_factors =
-      basis == Basis::volume ? std::vector<std::pair<std::string, int>>{{"m", -3}}
-                             : std::vector<std::pair<std::string, int>>{{per(basis), -1}};
-  auto cp_factors = std::vector<std::pair<std::string, int>>{{"J", 1}};
-  cp_factors.insert(cp_factors.end(), per_factors.begin(), per_factors.end());
-  auto h_factors = cp_factors;
-  cp_factors.emplace_back("K", -1);
   const std::vector<Property> properties = {
-      {"pr1", "Specific Heat Capacity", &table.capacity, capacity_unit(basis),
-       cp_factors},
-      {"pr2", "Enthalpy", &table.enthalpy, energy_unit(basis), h_factors},
-      {"pr3",
-       "Thermal Conductivity",
-       &table.conductivity,
-       "W/m/K",
-       {{"W", 1}, {"m", -1}, {"K", -1}}},
-      {"pr4", "Density", &table.density, "kg/m^3", {{"kg", 1}, {"m", -3}}}};
+      {"pr1", "Specific Heat Capacity", in_unit(table.capacity, units.at("cp")),
+       units.at("cp")},
+      {"pr2", "Enthalpy", in_unit(table.enthalpy, units.at("H")), units.at("H")},
+      {"pr3", "Thermal Conductivity", in_unit(table.conductivity, units.at("k")),
+       units.at("k")},
+      {"pr4", "Density", in_unit(table.density, units.at("rho")), units.at("rho")}};
 
   std::string notes = s.card + "\n" + s.tolerance + "\n" + s.worst_found + "\n";
   for (const std::string& j : s.jumps)
@@ -447,10 +463,10 @@ std::string xml_text(const Material& material, const std::string& card_path,
   out += "<!-- quantacal export in a subset of MatML 3.1 (docs/export.md) -->\n";
   out += "<MatML_Doc>\n  <Material>\n    <BulkDetails>\n";
   out += "      <Name>" + xml_escape(material.name()) + "</Name>\n";
-  const std::string temperatures = delimited(table.temperature);
+  const std::string temperatures = delimited(in_unit(table.temperature, units.at("T")));
   for (const Property& p : properties) {
     out += std::string("      <PropertyData property=\"") + p.id + "\" source=\"ds0\">\n";
-    out += "        <Data format=\"float\">" + delimited(*p.values) + "</Data>\n";
+    out += "        <Data format=\"float\">" + delimited(p.values) + "</Data>\n";
     out += "        <ParameterValue parameter=\"pa1\" format=\"float\">\n";
     out += "          <Data>" + temperatures + "</Data>\n";
     out += "        </ParameterValue>\n";
@@ -474,10 +490,11 @@ std::string xml_text(const Material& material, const std::string& card_path,
            xml_escape("for: " + one_line(sources[i].parameter)) +
            "</Notes>\n    </DataSourceDetails>\n";
   out += "    <ParameterDetails id=\"pa1\">\n      <Name>Temperature</Name>\n" +
-         xml_units("K", {{"K", 1}}) + "    </ParameterDetails>\n";
+         xml_units(units.at("T").text, units.at("T").factors) +
+         "    </ParameterDetails>\n";
   for (const Property& p : properties)
     out += std::string("    <PropertyDetails id=\"") + p.id + "\">\n      <Name>" +
-           p.name + "</Name>\n" + xml_units(p.unit, p.factors) +
+           p.name + "</Name>\n" + xml_units(p.unit.text, p.unit.factors) +
            "    </PropertyDetails>\n";
   out += "  </Metadata>\n</MatML_Doc>\n";
   return out;
@@ -503,7 +520,10 @@ int run_export(const std::vector<std::string>& args) {
   const Format file_format = format_from_path(*target);
   const double tolerance =
       tolerance_from_text(options.text("tolerance").value_or("0.5%"));
-  const Basis basis = basis_from_text(options.text("basis").value_or("mass"));
+  const std::string basis_text = options.text("basis").value_or("mass");
+  const Basis basis = basis_from_text(basis_text);
+  const Units units = parse_output_units("export", options.text("unit"),
+                                         thermal_quantities(basis_text, "H", true));
 
   const std::string& card_path = options.positional[0];
   const MaterialPtr material = load_card(card_path);
@@ -523,9 +543,9 @@ int run_export(const std::vector<std::string>& args) {
 
   const ExportTable table = build_export_table(*material, from, until, tolerance, basis);
   const std::string text =
-      file_format == Format::csv    ? csv_text(*material, card_path, table, basis)
-      : file_format == Format::json ? json_text(*material, card_path, table, basis)
-                                    : xml_text(*material, card_path, table, basis);
+      file_format == Format::csv    ? csv_text(*material, card_path, table, basis, units)
+      : file_format == Format::json ? json_text(*material, card_path, table, basis, units)
+                                    : xml_text(*material, card_path, table, basis, units);
   write_file_atomically(*target, text);
   std::cout << "quantacal export: wrote " << *target << ": " << table.temperature.size()
             << " nodes, "

@@ -2,6 +2,7 @@
 // `quantacal table`: specific heat, stored energy and conductivity of one card as CSV.
 #include "command_registry.h"
 #include "options.h"
+#include "output_units.h"
 #include <quantacal/fit/fit.h>
 
 #include <quantacal/cards/card.h>
@@ -9,6 +10,7 @@
 
 #include <cmath>
 #include <iostream>
+#include <map>
 #include <string>
 #include <vector>
 
@@ -21,7 +23,9 @@ constexpr std::size_t max_rows = 1000000;
 OptionParser table_parser() {
   OptionParser parser(
       "table",
-      "CARD [--from K] [--to K] [--step K] [--basis mass|mole|volume] [--exact] [--band]",
+      "CARD [--from K] [--to K] [--step K] [--basis mass|mole|volume] [--unit "
+      "Q=UNIT,...] "
+      "[--exact] [--band]",
       "Prints, as CSV on stdout, the specific heat, the stored energy and the thermal\n"
       "conductivity of the material described by CARD, one row per temperature.\n"
       "Rows run from --from to --to in steps of --step; the last row is exactly at\n"
@@ -43,7 +47,17 @@ OptionParser table_parser() {
       "  k_W_per_m_K,k_sigma_W_per_m_K\n"
       "The band is evaluated on the exact model.\n"
       "\n"
-      "Temperatures are in K; \"300 K\" and \"26.85 degC\" are accepted too.\n"
+      "With --unit, the named quantities (T, cp, e, k; H is accepted for e) are\n"
+      "printed in the units given, and the header names them, e.g.\n"
+      "  --unit cp=J/g/K,T=degC,k=W/cm/K,e=kJ/kg gives\n"
+      "  T_degC,cp_J_per_g_K,e_kJ_per_kg,k_W_per_cm_K\n"
+      "Each unit must fit its quantity on the chosen basis (cp=J/mol/K needs\n"
+      "--basis mole). degC and degF alone are absolute temperatures (T); inside a\n"
+      "unit they are degree intervals, so J/g/degC is J/g/K. The sigma columns of\n"
+      "--band are in the unit of their quantity.\n"
+      "\n"
+      "Temperatures of --from, --to and --step are in K whatever --unit says;\n"
+      "\"300 K\" and \"26.85 degC\" are accepted too.\n"
       "Nothing is printed unless every row can be computed.");
   parser
       .add_value("from", "K", "first temperature (default: lower end of the valid range)")
@@ -51,6 +65,7 @@ OptionParser table_parser() {
       .add_value("step", "K", "temperature step, > 0 (default: 1 K)")
       .add_value("basis", "BASIS", "mass (default), mole or volume",
                  {"mass", "mole", "volume"})
+      .add_value("unit", "Q=UNIT,...", unit_option_help())
       .add_flag("exact", "evaluate the exact model instead of the cached table (slower)")
       .add_flag("band",
                 "add one-sigma columns from the card's fit record (quantacal fit)")
@@ -66,24 +81,17 @@ Basis basis_from_text(const std::string& text) {
   return Basis::mass;
 }
 
-const char* header_for(Basis basis) {
-  switch (basis) {
-  case Basis::mole:
-    return "T_K,cp_J_per_mol_K,e_J_per_mol,k_W_per_m_K\n";
-  case Basis::volume:
-    return "T_K,cp_J_per_m3_K,e_J_per_m3,k_W_per_m_K\n";
-  case Basis::mass:
-    break;
-  }
-  return "T_K,cp_J_per_kg_K,e_J_per_kg,k_W_per_m_K\n";
-}
-
-/// The --band header: each quantity followed by its one-sigma column.
-std::string band_header_for(Basis basis) {
-  const char* per = basis == Basis::mole ? "mol" : basis == Basis::volume ? "m3" : "kg";
-  const std::string p(per);
-  return "T_K,cp_J_per_" + p + "_K,cp_sigma_J_per_" + p + "_K,e_J_per_" + p +
-         ",e_sigma_J_per_" + p + ",k_W_per_m_K,k_sigma_W_per_m_K\n";
+/// The CSV header, e.g. "T_K,cp_J_per_kg_K,e_J_per_kg,k_W_per_m_K"; with --band each
+/// quantity is followed by its one-sigma column (cp_sigma_J_per_kg_K, ...).
+std::string header_for(const std::map<std::string, OutputUnit>& units, bool band) {
+  const auto column = [&](const std::string& name, const char* suffix = "") {
+    return name + suffix + "_" + units.at(name).token;
+  };
+  if (band)
+    return column("T") + "," + column("cp") + "," + column("cp", "_sigma") + "," +
+           column("e") + "," + column("e", "_sigma") + "," + column("k") + "," +
+           column("k", "_sigma") + "\n";
+  return column("T") + "," + column("cp") + "," + column("e") + "," + column("k") + "\n";
 }
 
 std::string range_text(const Material& material) {
@@ -128,8 +136,15 @@ int run_table(const std::vector<std::string>& args) {
   if (!(step > 0.0))
     throw UsageError("option --step = \"" + *options.text("step") +
                      "\": expected a temperature step > 0 K");
-  const Basis basis = basis_from_text(options.text("basis").value_or("mass"));
+  const std::string basis_text = options.text("basis").value_or("mass");
+  const Basis basis = basis_from_text(basis_text);
   const bool exact = options.has("exact");
+  const std::map<std::string, OutputUnit> units = parse_output_units(
+      "table", options.text("unit"), thermal_quantities(basis_text, "e", false));
+  const OutputUnit& t_unit = units.at("T");
+  const OutputUnit& cp_unit = units.at("cp");
+  const OutputUnit& e_unit = units.at("e");
+  const OutputUnit& k_unit = units.at("k");
 
   const MaterialPtr material = load_card(options.positional[0]);
   const double from = options.temperature("from", material->lower_temperature());
@@ -149,15 +164,17 @@ int run_table(const std::vector<std::string>& args) {
 
   // The whole output is built in memory and written only when every row succeeded.
   if (options.has("band")) {
-    std::string out = band_header_for(basis);
+    std::string out = header_for(units, true);
     for (const double t : row_temperatures(from, to, step)) {
       const fit::BandRow row = fit::band(*material, t, basis);
-      for (const double v : {t, row.capacity, row.capacity_sigma, row.energy,
-                             row.energy_sigma, row.conductivity}) {
+      for (const double v :
+           {t_unit.value(t), cp_unit.value(row.capacity),
+            cp_unit.difference(row.capacity_sigma), e_unit.value(row.energy),
+            e_unit.difference(row.energy_sigma), k_unit.value(row.conductivity)}) {
         out += format_double(v);
         out += ',';
       }
-      out += format_double(row.conductivity_sigma);
+      out += format_double(k_unit.difference(row.conductivity_sigma));
       out += '\n';
     }
     std::cout << out << std::flush;
@@ -165,19 +182,19 @@ int run_table(const std::vector<std::string>& args) {
       throw std::ios_base::failure("could not write the table to stdout");
     return ok;
   }
-  std::string out = header_for(basis);
+  std::string out = header_for(units, false);
   for (const double t : row_temperatures(from, to, step)) {
     const ThermalState state =
         exact ? material->thermal_exact(t, basis) : material->thermal(t, basis);
     const ConductivityValue k =
         exact ? material->conductivity_exact(t) : material->conductivity(t);
-    out += format_double(t);
+    out += format_double(t_unit.value(t));
     out += ',';
-    out += format_double(state.capacity);
+    out += format_double(cp_unit.value(state.capacity));
     out += ',';
-    out += format_double(state.energy);
+    out += format_double(e_unit.value(state.energy));
     out += ',';
-    out += format_double(k.value);
+    out += format_double(k_unit.value(k.value));
     out += '\n';
   }
   std::cout << out << std::flush;

@@ -8,6 +8,8 @@
 #include <cmath>
 #include <stdexcept>
 #include <string>
+#include <utility>
+#include <vector>
 
 using namespace quantacal;
 
@@ -95,4 +97,52 @@ TEST(Units, Errors) {
   EXPECT_NE(
       message_of("1 K^0", dimension::temperature()).find("non-zero integer exponent"),
       std::string::npos);
+}
+
+TEST(Units, FahrenheitAndThermochemicalCalorie) {
+  // degF alone: T/K = (x + 459.67) 5/9; inside a unit a 5/9 K interval (NIST SP 811,
+  // B.8). cal: the thermochemical calorie, 4.184 J exactly (ISO 80000-5).
+  const Quantity f = parse_quantity("32 degF");
+  EXPECT_TRUE(f.is_temperature_offset);
+  EXPECT_NEAR(f.value, 273.15, 1e-13);
+  EXPECT_NEAR(parse_quantity("-459.67 degF", dimension::temperature()), 0.0, 1e-13);
+  EXPECT_NEAR(parse_quantity("1 J/g/degF", dimension::specific_capacity()), 1800.0,
+              1e-12);
+  EXPECT_FALSE(parse_quantity("1 J/g/degF").is_temperature_offset);
+  EXPECT_NEAR(parse_quantity("1 cal/g/K", dimension::specific_capacity()), 4184.0, 1e-12);
+  EXPECT_NEAR(parse_quantity("1 kcal/mol", dimension::molar_energy()), 4184.0, 1e-12);
+}
+
+TEST(Units, ParseUnitGivesFactorOffsetAndWrittenFactors) {
+  const Unit cp = parse_unit("J/(g K)");
+  EXPECT_NEAR(cp.scale, 1000.0, 1e-12);
+  EXPECT_EQ(cp.offset, 0.0);
+  EXPECT_EQ(cp.dimension, dimension::specific_capacity());
+  const std::vector<std::pair<std::string, int>> factors = {
+      {"J", 1}, {"g", -1}, {"K", -1}};
+  EXPECT_EQ(cp.factors, factors);
+  const std::vector<std::pair<std::string, int>> merged = {{"kg", 1}, {"m", -3}};
+  EXPECT_EQ(parse_unit("kg m^-1 m^-2").factors, merged);
+  EXPECT_EQ(parse_unit("W*m^-1*K^-1").factors,
+            (std::vector<std::pair<std::string, int>>{{"W", 1}, {"m", -1}, {"K", -1}}));
+  const Unit c = parse_unit("degC");
+  EXPECT_TRUE(c.is_temperature_offset);
+  EXPECT_EQ(c.offset, 273.15);
+  EXPECT_EQ(c.scale, 1.0);
+  const Unit f = parse_unit("degF");
+  EXPECT_EQ(f.offset, 459.67);
+  EXPECT_EQ(f.scale, 5.0 / 9.0);
+  // degC under '/' or a power is an interval, not an offset scale.
+  EXPECT_FALSE(parse_unit("1/degC").is_temperature_offset);
+  EXPECT_EQ(parse_quantity("2 /degC").value, 2.0);
+  EXPECT_FALSE(parse_unit("degC/min").is_temperature_offset);
+  EXPECT_EQ(describe_dimension(dimension::conductivity()),
+            "a thermal conductivity (e.g. W/m/K)");
+  try {
+    parse_unit("J/gram/K");
+    ADD_FAILURE() << "no error";
+  } catch (const std::invalid_argument& e) {
+    EXPECT_EQ(std::string(e.what()).find("unit \"J/gram/K\": unknown unit 'gram'"), 0u)
+        << e.what();
+  }
 }
