@@ -402,13 +402,24 @@ void check_model_over_range(CardReader& reader, const CardNodes& nodes,
                 "expected a range inside the domain of the heat-capacity terms, " +
                     format_double(model.lower_temperature()) + " K to " +
                     format_double(model.upper_temperature()) + " K");
+  // 65 temperatures spread over the range, and both sides of every breakpoint
+  // of the model (phase joins, kinks), where a table puts nodes: a capacity
+  // that turns negative just below a join was missed by the spread alone
+  // (fuzz_card, docs/reliability.md) and failed only when the table was built.
+  std::vector<double> temperatures;
   const int n = 64;
-  for (int i = 0; i <= n; ++i) {
-    const double t =
+  for (int i = 0; i <= n; ++i)
+    temperatures.push_back(std::min(
         data.lower_temperature *
-        std::pow(data.upper_temperature / data.lower_temperature, double(i) / n);
+            std::pow(data.upper_temperature / data.lower_temperature, double(i) / n),
+        data.upper_temperature));
+  for (const double b : model.breakpoints())
+    for (const double t : {std::nextafter(b, 0.0), b, std::nextafter(b, b + 1.0)})
+      if (t >= data.lower_temperature && t <= data.upper_temperature)
+        temperatures.push_back(t);
+  for (const double t : temperatures) {
     try {
-      const ThermalState s = model.evaluate(std::min(t, data.upper_temperature));
+      const ThermalState s = model.evaluate(t);
       if (!std::isfinite(s.energy) || !std::isfinite(s.capacity) || !(s.capacity > 0.0))
         throw std::invalid_argument("C = " + format_double(s.capacity) + " J/mol/K at " +
                                     format_double(t) + " K");

@@ -7,17 +7,40 @@
 
 #include "units_detail.h"
 
+#include <algorithm>
 #include <set>
 #include <stdexcept>
 
 namespace quantacal::detail {
 
+namespace {
+
+// yaml-cpp may mark an error past the end of its line or of the text (after a
+// NUL byte or a malformed UTF-8 sequence, at the end of the stream): the
+// location is moved to the nearest place that exists in @p text, one past
+// the last byte of the line at most.
+void clamp_to_text(const std::string& text, int& line, int& column) {
+  int n_lines = 1;
+  std::size_t start = 0; // of the line `line` (or of the last line)
+  for (std::size_t i = 0; i < text.size() && n_lines < line; ++i)
+    if (text[i] == '\n') {
+      ++n_lines;
+      start = i + 1;
+    }
+  line = std::max(1, std::min(line, n_lines));
+  const std::size_t end = std::min(text.find('\n', start), text.size());
+  column = std::max(1, std::min(column, static_cast<int>(end - start) + 1));
+}
+
+} // namespace
+
 YAML::Node parse_yaml(const std::string& text, const std::string& file) {
   try {
     return YAML::Load(text);
   } catch (const YAML::Exception& e) {
-    const int line = e.mark.is_null() ? 0 : e.mark.line + 1;
-    const int column = e.mark.is_null() ? 0 : e.mark.column + 1;
+    int line = e.mark.is_null() ? 1 : e.mark.line + 1;
+    int column = e.mark.is_null() ? 1 : e.mark.column + 1;
+    clamp_to_text(text, line, column);
     throw InputError(file, line, column, "", "", "YAML syntax error: " + e.msg);
   }
 }

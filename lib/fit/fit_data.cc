@@ -206,7 +206,7 @@ Header read_header(std::istream& in, int& line_number, const std::string& file) 
     break;
   }
   if (h.cells.empty())
-    throw CardError(file, 0, 0, "", "",
+    throw CardError(file, 1, 1, "", "",
                     "empty data file: expected a header row naming the columns, e.g. "
                     "\"T_K,cp_J_per_kg_K\"");
   h.index = column_indices(h, file);

@@ -4,6 +4,7 @@
 
 #include <quantacal/common/exceptions.h>
 
+#include <algorithm>
 #include <cmath>
 #include <stdexcept>
 
@@ -140,21 +141,26 @@ void Material::thermal(const double* temperatures, std::size_t n, Basis basis,
 double Material::temperature_from_energy(double energy, Basis basis) const {
   const PropertyTable& t = table();
   const double factor = basis_factor(basis);
-  // Molar energy on the table's own scale (the offset undone).
-  const double molar = energy / factor + energy_offset_;
   const double lowest = t.evaluate(t.lower_temperature()).energy;
   const double highest = t.evaluate(t.upper_temperature()).energy;
-  if (!(std::isfinite(energy) && molar >= lowest && molar <= highest)) {
+  // The range check is made on the caller's basis, with the very expression
+  // thermal() uses, so that the energies it returns at both ends of the range
+  // are accepted: undoing the basis factor and the offset rounds, and may put
+  // e(lower) a unit in the last place below the table's lowest energy.
+  const double low = factor * (lowest - energy_offset_);
+  const double high = factor * (highest - energy_offset_);
+  if (!(std::isfinite(energy) && energy >= low && energy <= high)) {
     static const char* units[] = {"J/kg", "J/mol", "J/m^3"};
     const char* unit = units[static_cast<int>(basis)];
-    throw RangeError(
-        "quantacal::Material::temperature_from_energy", data_.name,
-        format_double(factor * (lowest - energy_offset_)) + " " + unit +
-            " <= e <= " + format_double(factor * (highest - energy_offset_)) + " " +
-            unit + " (the valid range " + format_double(data_.lower_temperature) +
-            " K to " + format_double(data_.upper_temperature) + " K)",
-        energy, unit);
+    throw RangeError("quantacal::Material::temperature_from_energy", data_.name,
+                     format_double(low) + " " + unit + " <= e <= " + format_double(high) +
+                         " " + unit + " (the valid range " +
+                         format_double(data_.lower_temperature) + " K to " +
+                         format_double(data_.upper_temperature) + " K)",
+                     energy, unit);
   }
+  // Molar energy on the table's own scale (the offset undone).
+  const double molar = std::clamp(energy / factor + energy_offset_, lowest, highest);
   return t.temperature_from_energy(molar);
 }
 
