@@ -12,17 +12,9 @@
 namespace quantacal::cli {
 namespace {
 
-std::string trim(const std::string& s) {
-  const auto first = s.find_first_not_of(" \t");
-  if (first == std::string::npos)
-    return {};
-  const auto last = s.find_last_not_of(" \t");
-  return s.substr(first, last - first + 1);
-}
-
 /// Splits "12.5 K" or "12.5K" into the number and the unit text ("" if none).
 bool split_number_unit(const std::string& raw, double& value, std::string& unit) {
-  const std::string text = trim(raw);
+  const std::string text = trim_blanks(raw);
   if (text.empty())
     return false;
   const char* begin = text.data();
@@ -32,7 +24,7 @@ bool split_number_unit(const std::string& raw, double& value, std::string& unit)
   const auto result = std::from_chars(begin, end, value, std::chars_format::general);
   if (result.ec != std::errc() || !std::isfinite(value))
     return false;
-  unit = trim(std::string(result.ptr, end));
+  unit = trim_blanks(std::string(result.ptr, end));
   return true;
 }
 

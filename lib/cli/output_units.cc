@@ -14,14 +14,6 @@
 namespace quantacal::cli {
 namespace {
 
-std::string trim(const std::string& s) {
-  const auto first = s.find_first_not_of(" \t");
-  if (first == std::string::npos)
-    return {};
-  const auto last = s.find_last_not_of(" \t");
-  return s.substr(first, last - first + 1);
-}
-
 /// "J", "m^3" in text; "J", "m3" in a header token.
 std::string power_text(const std::string& symbol, int power, bool for_header) {
   if (power == 1)
@@ -141,7 +133,7 @@ parse_output_units(const std::string& command, const std::optional<std::string>&
   for (const OutputQuantity& q : quantities)
     listed += (listed.empty() ? "" : ", ") + q.name;
   const std::string head = "option --unit = \"" + raw + "\": ";
-  if (trim(raw).empty())
+  if (trim_blanks(raw).empty())
     throw UsageError(head + "expected QUANTITY=UNIT items separated by commas, e.g. "
                             "cp=J/g/K,T=degC");
 
@@ -153,13 +145,13 @@ parse_output_units(const std::string& command, const std::optional<std::string>&
     const std::string where = head + "item " + std::to_string(item) + " (column " +
                               std::to_string(start + 1) + ") \"" + text + "\": ";
     const auto eq = text.find('=');
-    if (trim(text).empty())
+    if (trim_blanks(text).empty())
       throw UsageError(where + "empty item: expected QUANTITY=UNIT, e.g. cp=J/g/K");
     if (eq == std::string::npos)
       throw UsageError(where + "expected QUANTITY=UNIT, e.g. cp=J/g/K (" + command +
                        " prints " + listed + ")");
-    const std::string name = trim(text.substr(0, eq));
-    const std::string unit_text = trim(text.substr(eq + 1));
+    const std::string name = trim_blanks(text.substr(0, eq));
+    const std::string unit_text = trim_blanks(text.substr(eq + 1));
     const auto quantity =
         std::find_if(quantities.begin(), quantities.end(), [&](const OutputQuantity& q) {
           return q.name == name ||

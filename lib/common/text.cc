@@ -60,4 +60,12 @@ std::string did_you_mean(const std::string& word,
   return best.empty() ? std::string() : " (did you mean '" + quote_prefix + best + "'?)";
 }
 
+std::string trim_blanks(const std::string& s) {
+  const auto first = s.find_first_not_of(" \t\r");
+  if (first == std::string::npos)
+    return {};
+  const auto last = s.find_last_not_of(" \t\r");
+  return s.substr(first, last - first + 1);
+}
+
 } // namespace quantacal

@@ -42,14 +42,6 @@ struct Cell {
   int column = 0; // 1-based character column of the cell's first character
 };
 
-std::string trim(const std::string& s) {
-  const auto a = s.find_first_not_of(" \t\r");
-  if (a == std::string::npos)
-    return "";
-  const auto b = s.find_last_not_of(" \t\r");
-  return s.substr(a, b - a + 1);
-}
-
 std::vector<Cell> split(const std::string& line) {
   std::vector<Cell> cells;
   std::size_t start = 0;
@@ -59,7 +51,7 @@ std::vector<Cell> split(const std::string& line) {
         start, comma == std::string::npos ? std::string::npos : comma - start);
     const std::size_t lead = raw.find_first_not_of(" \t");
     cells.push_back(
-        {trim(raw),
+        {trim_blanks(raw),
          static_cast<int>(start + (lead == std::string::npos ? 0 : lead)) + 1});
     if (comma == std::string::npos)
       break;
@@ -69,7 +61,7 @@ std::vector<Cell> split(const std::string& line) {
 }
 
 bool skipped(const std::string& line) {
-  const std::string t = trim(line);
+  const std::string t = trim_blanks(line);
   return t.empty() || t[0] == '#';
 }
 

@@ -150,7 +150,7 @@ TEST(BundledCards, EnthalpyIncrementVsCodata) {
                                   // Medvedev 1989 (verified)
       {"silicon.yaml", 3217.0},   // CODATA Key Values for Thermodynamics, Cox, Wagman and
                                   // Medvedev 1989 (from memory); a fit check for silicon:
-                                  // its Einstein modes are fitted to the SGTE 3217.5 J/mol
+                                // its Einstein modes are fitted to the SGTE 3217.5 J/mol
   };
   for (const auto& [file, h] : rows) {
     SCOPED_TRACE(file);

@@ -2,7 +2,8 @@
 /**
  * @file text.h
  * @brief The one "did you mean" of quantacal, used by every reader (cards,
- *        case files, data files, units) and by the command-line options.
+ *        case files, data files, units) and by the command-line options, and
+ *        the one trim of their fields.
  *
  * Why it exists: a misspelt key, unit, column or option should get the same
  * suggestion whichever reader found it, so there is one distance and one
@@ -41,6 +42,9 @@ std::string nearest_word(const std::string& word,
 std::string did_you_mean(const std::string& word,
                          const std::vector<std::string>& candidates,
                          const std::string& quote_prefix = "");
+
+/** @p s without leading and trailing spaces, tabs and carriage returns. */
+std::string trim_blanks(const std::string& s);
 
 } // namespace quantacal
 
