@@ -124,6 +124,20 @@ endif()
 message(STATUS "consumer test: C interface: cp(300 K) = ${c_cp_bits} (C++ ${cp_bits}), "
                "T(e(350 K)) = ${c_back} K")
 
+# The Fortran consumer (FORTRAN: the build made quantacal::fortran): the same
+# c_p(300 K) as the C++ consumer, bit for bit (it reads the C++ round-trip decimal).
+if(FORTRAN)
+  if(NOT EXISTS "${consumer_build}/fortran_consumer")
+    message(FATAL_ERROR "consumer test: the Fortran consumer was not built against the install")
+  endif()
+  run_step(run-fortran "${consumer_build}/fortran_consumer" "${card}" "${cp}")
+  if(NOT step_output MATCHES "Fortran cp\\(300 K\\) = +([-+0-9.eE]+) J/kg/K, equal to C\\+\\+: T")
+    message(FATAL_ERROR "consumer test: unexpected Fortran output: ${step_output}")
+  endif()
+  message(STATUS "consumer test: Fortran module: cp(300 K) = ${CMAKE_MATCH_1} J/kg/K, "
+                 "equal to C++ ${cp}")
+endif()
+
 # The Python package from the install tree: imported through PYTHONPATH from
 # <stage>/PYTHON_SITE (not the build tree), c_p(300 K) of the same card equal to the
 # C++ consumer's, bit for bit.
