@@ -139,16 +139,6 @@ void on_rank_zero(MPI_Comm communicator, Work&& work) {
     throw std::ios_base::failure(failure);
 }
 
-std::string quoted(const std::string& text) {
-  std::string out = "\"";
-  for (const char ch : text) {
-    if (ch == '"' || ch == '\\')
-      out += '\\';
-    out += ch;
-  }
-  return out + "\"";
-}
-
 std::string record_text(const CaseDescription& description, const RunState& state,
                         unsigned int ranks,
                         const std::vector<FingerprintSection>& fingerprint,

@@ -95,7 +95,6 @@ std::vector<Crossing> find_crossings(const RunResult& result,
   return out;
 }
 
-namespace {
 std::string quoted(const std::string& text) {
   std::string out = "\"";
   for (const char ch : text) {
@@ -105,6 +104,8 @@ std::string quoted(const std::string& text) {
   }
   return out + "\"";
 }
+
+namespace {
 const char* geometry_name(Geometry geometry) {
   switch (geometry) {
   case Geometry::planar:

@@ -47,6 +47,9 @@ std::string write_plot_script(const std::string& folder, const RunResult& result
 /** Shortest round-trip text of a double. */
 std::string number(double value);
 
+/** @p text as a double-quoted YAML scalar (\" and \\ escaped). */
+std::string quoted(const std::string& text);
+
 } // namespace quantacal::solver::detail
 
 #endif
