@@ -12,6 +12,7 @@
 
 #include <algorithm>
 #include <cstdio>
+#include <cstring>
 #include <new>
 #include <string>
 #include <vector>
@@ -121,8 +122,19 @@ qc_status null_argument(const char* function, const char* argument) noexcept {
   return invalid(function, "%s is a null pointer", argument);
 }
 
-bool to_basis(qc_basis basis, Basis& out) noexcept {
-  switch (basis) {
+// A C caller may pass any int as a qc_basis or qc_status (a cast); C++ may not
+// load such a value as the enum (UBSan: "load of value ... not a valid value for
+// type 'qc_basis'"), so the argument's bytes are read as the int they are.
+template <typename Enum>
+int raw_int(const Enum& e) noexcept {
+  static_assert(sizeof(Enum) == sizeof(int), "an int-sized C enum");
+  int value = 0;
+  std::memcpy(&value, &e, sizeof value);
+  return value;
+}
+
+bool to_basis(const qc_basis& basis, Basis& out) noexcept {
+  switch (raw_int(basis)) {
   case QC_PER_MASS:
     out = Basis::mass;
     return true;
@@ -136,11 +148,11 @@ bool to_basis(qc_basis basis, Basis& out) noexcept {
   return false;
 }
 
-qc_status bad_basis(const char* function, qc_basis basis) noexcept {
+qc_status bad_basis(const char* function, const qc_basis& basis) noexcept {
   return invalid(function,
                  "basis = %d: expected QC_PER_MASS (0), QC_PER_MOLE (1) or "
                  "QC_PER_VOLUME (2)",
-                 static_cast<int>(basis));
+                 raw_int(basis));
 }
 
 /// Loads through @p load and builds both tables, so evaluation never builds.
@@ -368,7 +380,7 @@ qc_status qc_set_error(qc_status status, const char* message) {
 }
 
 const char* qc_status_name(qc_status status) {
-  switch (status) {
+  switch (raw_int(status)) {
   case QC_OK:
     return "ok";
   case QC_INPUT_ERROR:

@@ -152,6 +152,13 @@ void read_measurements(CardReader& reader, const YAML::Node& list,
     m.value = reader.quantity_of(v, vpath, dimensions, found);
     if (found == 1)
       m.value *= data.molar_mass; // per kg -> per mole
+    // A heat capacity or a conductivity is positive; a stored energy may have
+    // either sign (it counts from the reference temperature).
+    if (m.quantity != Measurement::Quantity::stored_energy && !(m.value > 0.0))
+      reader.fail(v, vpath, reader.text(v, vpath),
+                  m.quantity == Measurement::Quantity::conductivity
+                      ? "expected a measured conductivity > 0 W/m/K"
+                      : "expected a measured specific heat > 0");
     const std::string tolpath = join_path(ipath, "tolerance");
     const YAML::Node tol = reader.require(item, ipath, "tolerance");
     m.tolerance = reader.number(tol, tolpath);
@@ -281,6 +288,8 @@ CardNodes read_card_basics(CardReader& reader, const YAML::Node& root,
 
   const YAML::Node range = reader.require(root, "", "valid_range");
   reader.check_keys(range, "valid_range", {"from", "to"});
+  data.range_line = CardReader::line_of(range);
+  data.range_column = CardReader::column_of(range);
   data.lower_temperature = reader.positive_temperature(
       reader.require(range, "valid_range", "from"), "valid_range.from");
   const YAML::Node to = reader.require(range, "valid_range", "to");

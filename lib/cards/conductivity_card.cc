@@ -100,7 +100,14 @@ ConductivityPtr read_metal(CardReader& reader, const YAML::Node& node,
     reader.fail(node, path, "", "give exactly one of `rrr` and `rho_0`");
   try {
     return make_metal_conductivity(p);
-  } catch (const std::invalid_argument& e) {
+  } catch (const InputError& e) {
+    // Located at the parameter the model refused where the card gives it.
+    const YAML::Node given =
+        e.field().empty() ? YAML::Node() : reader.optional(node, e.field());
+    if (given.IsDefined()) {
+      const std::string kpath = join_path(path, e.field());
+      reader.fail(given, kpath, reader.text(given, kpath), "expected " + e.expected());
+    }
     reader.fail(node, path, "", e.what());
   }
 }

@@ -72,9 +72,30 @@ double Material::basis_factor(Basis basis) const noexcept {
   return 1.0;
 }
 
+// A card whose terms are finite and positive at every checked temperature can still
+// be beyond tabulation (a capacity that swings by orders of magnitude inside a
+// kelvin; found by fuzz_card, docs/reliability.md): that is the card's fault, so it
+// is reported at the card's valid range.
+template <typename Build>
+auto Material::build_for_card(Build build) const {
+  try {
+    return build();
+  } catch (const NumericalError& e) {
+    if (data_.file.empty())
+      throw;
+    throw InputError(data_.file, data_.range_line > 0 ? data_.range_line : 1,
+                     data_.range_column > 0 ? data_.range_column : 1, "valid_range", "",
+                     std::string("the card's terms cannot be tabulated inside the valid "
+                                 "range: ") +
+                         e.what());
+  }
+}
+
 TablePtr Material::shared_table() const {
+  // (call_once: a build that throws leaves the flag unset, the next call retries)
   std::call_once(table_once_, [this] {
-    table_ = PropertyTable::build(*data_.model, data_.table_options);
+    table_ = build_for_card(
+        [this] { return PropertyTable::build(*data_.model, data_.table_options); });
   });
   return table_;
 }
@@ -86,8 +107,10 @@ const PropertyTable& Material::table() const {
 ConductivityTablePtr Material::shared_conductivity_table() const {
   // the same pattern as the table: one build, every other caller waits for it
   std::call_once(conductivity_table_once_, [this] {
-    conductivity_table_ =
-        ConductivityTable::build(*data_.conductivity, data_.name, data_.table_options);
+    conductivity_table_ = build_for_card([this] {
+      return ConductivityTable::build(*data_.conductivity, data_.name,
+                                      data_.table_options);
+    });
   });
   return conductivity_table_;
 }

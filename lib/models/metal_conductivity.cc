@@ -104,10 +104,10 @@ double bloch_grueneisen_shape(double temperature, double theta) noexcept {
 
 void require(bool ok, const std::string& name, double value,
              const std::string& expected) {
+  // (the field names the parameter, so a card reader can locate it)
   if (!ok)
-    throw InputError::argument("", "", "",
-                               "quantacal::MetalConductivity: " + name + " = " +
-                                   format_double(value) + ": expected " + expected);
+    throw InputError::argument("quantacal::MetalConductivity", name, format_double(value),
+                               expected);
 }
 
 void check_temperature(double temperature, const char* function) {

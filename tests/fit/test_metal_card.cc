@@ -73,7 +73,7 @@ TEST(MetalCard, ErrorsAreLocated) {
                "metal.yaml:13:26: conductivity.reference_resistivity = \"1.68e-8 K\"");
   expect_error("  kind: metal\n  rrr: 0.5\n  theta_R: \"343 K\"\n"
                "  reference_resistivity: \"1.68e-8 Ohm m\"\n",
-               "rrr = 0.5: expected a ratio > 1");
+               "metal.yaml:11:8: conductivity.rrr = \"0.5\": expected a ratio > 1");
   expect_error("  kind: metall\n", "did you mean 'metal'");
 }
 

@@ -2,7 +2,8 @@
 # Runs the libFuzzer targets of quantacal over their committed corpora
 # (docs/reliability.md). Build them first:
 #   cmake -S . -B /tmp/fuzz-build -DCMAKE_CXX_COMPILER=clang++-14 \
-#         -DCMAKE_C_COMPILER=clang-14 -DQUANTACAL_FUZZ=ON -DQUANTACAL_WITH_SOLVER=OFF
+#         -DCMAKE_C_COMPILER=clang-14 -DQUANTACAL_FUZZ=ON -DQUANTACAL_WITH_SOLVER=OFF \
+#         -DQUANTACAL_HARDENING_TESTS=OFF
 #   cmake --build /tmp/fuzz-build -j1 --target fuzz_targets
 # Usage: tests/fuzz/run_fuzz.sh BUILD_DIR SECONDS [TARGET...]
 #   TARGET: card units fit_data options c_api case (default: all)
@@ -11,10 +12,14 @@
 # changed), with a 10 s per-input timeout and a 2 GB memory limit. A crash,
 # timeout, leak or invariant failure leaves its input in WORK_DIR/<target>/
 # and makes the script exit non-zero after all targets ran. The last status
-# line of each target (execs, cov, ft) is printed at the end.
+# line of each target (execs, cov, ft) is printed at the end. With FRESH=1 each
+# target starts from the committed corpus alone (WORK_DIR/<target> is emptied
+# first), as the hardening tests run it. SEED=N fixes libFuzzer's random seed
+# (the hardening tests use SEED=1, so a CI run explores the same inputs each
+# time, as far as its SECONDS reach).
 set -uo pipefail
 if [ $# -lt 2 ]; then
-  sed -n '2,14p' "$0"
+  sed -n '2,19p' "$0"
   exit 2
 fi
 build=$1
@@ -33,11 +38,14 @@ for t in "${targets[@]}"; do
     failed=1
     continue
   fi
+  if [ "${FRESH:-0}" = 1 ]; then
+    rm -rf "${work:?}/$t"
+  fi
   mkdir -p "$work/$t/corpus"
   cp -n "$here/corpus/$t/"* "$work/$t/corpus/" 2>/dev/null
   log="$work/$t/fuzz.log"
   start=$(date +%s)
-  (cd "$work/$t" && "$exe" -max_total_time="$seconds" -timeout=10 -rss_limit_mb=2048 \
+  (cd "$work/$t" && "$exe" ${SEED:+-seed="$SEED"} -max_total_time="$seconds" -timeout=10 -rss_limit_mb=2048 \
      -max_len=16384 -print_final_stats=1 corpus >"$log" 2>&1)
   status=$?
   elapsed=$(($(date +%s) - start))

@@ -74,6 +74,9 @@ struct MaterialData {
   std::vector<PhaseInfo> phases;
   std::shared_ptr<const PhaseLayout> phase_layout;
   TableOptions table_options; ///< tolerance etc.; range is the valid range
+  /// Where the card gives its valid range (1-based line and column; 0 if built in
+  /// code): a card whose terms cannot be tabulated is reported there.
+  int range_line = 0, range_column = 0;
 };
 
 /**
@@ -192,6 +195,10 @@ public:
   void check_temperature(double temperature, const char* function) const;
 
 private:
+  /** @p build(), its NumericalError turned into an InputError at the card's range. */
+  template <typename Build>
+  auto build_for_card(Build build) const;
+
   MaterialData data_;
   double energy_offset_ = 0.0;
   mutable std::once_flag table_once_;
