@@ -1,8 +1,15 @@
 // SPDX-License-Identifier: Apache-2.0
-// Reading the `boundaries` and `sources` of a case file (docs/cases.md).
+// Reading the `boundaries` and `sources` of a case file (docs/cases.md); a
+// convection may name a quenchant curve (docs/quenchants.md).
 #include "case_reader.h"
 
+#include <quantacal/common/exceptions.h>
+#include <quantacal/common/text.h>
+#include <quantacal/solver/quenchant.h>
+
+#include <algorithm>
 #include <cmath>
+#include <filesystem>
 #include <set>
 
 namespace quantacal::solver::detail {
@@ -22,16 +29,21 @@ std::optional<Curve> read_fixed_temperature(const CaseReader& reader,
                        "a temperature", /*positive_y=*/true});
 }
 
-BoundarySpec::Convection read_convection(const CaseReader& reader, const YAML::Node& node,
-                                         const std::string& field) {
-  reader.check_keys(node, field, {"h", "ambient"});
+/** `h:` a constant or a table [[T_surface, h], ...], and the ambient temperature. */
+BoundarySpec::Convection read_coefficient(const CaseReader& reader,
+                                          const YAML::Node& node,
+                                          const std::string& field) {
   for (const char* key : {"h", "ambient"})
     if (!node[key])
       reader.fail_missing(
           node, field, key,
           key == std::string("h")
-              ? "a heat-transfer coefficient or a table [[T_surface, h], ...]"
+              ? "a heat-transfer coefficient or a table [[T_surface, h], ...], or a "
+                "quenchant (docs/quenchants.md)"
               : "an ambient temperature");
+  if (node["agitation"])
+    reader.fail(node["agitation"], field + ".agitation",
+                "agitation only with a quenchant (scale h itself otherwise)");
   BoundarySpec::Convection convection;
   convection.coefficient = reader.curve(
       node["h"], field + ".h",
@@ -58,6 +70,81 @@ BoundarySpec::Convection read_convection(const CaseReader& reader, const YAML::N
   convection.ambient_temperature =
       reader.temperature(node["ambient"], field + ".ambient");
   return convection;
+}
+
+/** The file of `quenchant: NAME` (looked up by name) or `quenchant_file: PATH`. */
+std::string quenchant_path(const CaseReader& reader, const YAML::Node& node,
+                           const std::string& field) {
+  if (node["quenchant_file"]) {
+    const std::string path =
+        reader.path(node["quenchant_file"], field + ".quenchant_file");
+    if (!std::filesystem::is_regular_file(path))
+      reader.fail(node["quenchant_file"], field + ".quenchant_file",
+                  "an existing quenchant file (not found: " + path + ")");
+    return path;
+  }
+  const std::string name = reader.text(node["quenchant"], field + ".quenchant");
+  const std::string path = find_quenchant(name);
+  if (!path.empty())
+    return path;
+  std::string names, folders;
+  for (const std::string& n : quenchant_names())
+    names += (names.empty() ? "" : ", ") + n;
+  for (const std::string& f : quenchant_folders())
+    folders += (folders.empty() ? "" : ", ") + f;
+  reader.fail(node["quenchant"], field + ".quenchant",
+              "the name of a quenchant" + did_you_mean(name, quenchant_names()) +
+                  "; available: " + (names.empty() ? "none" : names) + " (searched: " +
+                  folders + "); or quenchant_file: a path to a quenchant file");
+}
+
+/** `quenchant:` or `quenchant_file:`, with `agitation:` and `ambient:` optional. */
+BoundarySpec::Convection read_quenchant(const CaseReader& reader, const YAML::Node& node,
+                                        const std::string& field) {
+  const char* key = node["quenchant"] ? "quenchant" : "quenchant_file";
+  if (node["h"])
+    reader.fail(node[key], field + "." + key,
+                "either h or a quenchant, not both (the quenchant gives h)");
+  if (node["quenchant"] && node["quenchant_file"])
+    reader.fail(node["quenchant_file"], field + ".quenchant_file",
+                "either quenchant (a name) or quenchant_file (a path), not both");
+  const std::string path = quenchant_path(reader, node, field);
+  Quenchant quenchant;
+  try {
+    quenchant = load_quenchant(path);
+  } catch (const InputError& e) {
+    const CaseLocation at = reader.where(node[key], field + "." + key);
+    throw InputError(e.file(), e.line(), e.column(), e.field(), e.value(),
+                     e.expected() + " (in the quenchant of " + reader.file() + ":" +
+                         std::to_string(at.line) + ":" + std::to_string(at.column) + ")");
+  }
+  double agitation = 1.0;
+  if (node["agitation"]) {
+    agitation = reader.number(node["agitation"], field + ".agitation",
+                              "an agitation factor multiplying h, > 0 and <= 10");
+    if (!(agitation > 0.0 && agitation <= 10.0))
+      reader.fail(
+          node["agitation"], field + ".agitation",
+          "an agitation factor multiplying h, > 0 and <= 10 (docs/quenchants.md)");
+  }
+  std::vector<double> h = quenchant.coefficient.y();
+  for (double& value : h)
+    value *= agitation;
+  BoundarySpec::Convection convection;
+  convection.coefficient = Curve(quenchant.coefficient.x(), std::move(h));
+  convection.ambient_temperature =
+      node["ambient"] ? reader.temperature(node["ambient"], field + ".ambient")
+                      : quenchant.bath_temperature;
+  return convection;
+}
+
+BoundarySpec::Convection read_convection(const CaseReader& reader, const YAML::Node& node,
+                                         const std::string& field) {
+  reader.check_keys(node, field,
+                    {"h", "ambient", "quenchant", "quenchant_file", "agitation"});
+  if (node["quenchant"] || node["quenchant_file"])
+    return read_quenchant(reader, node, field);
+  return read_coefficient(reader, node, field);
 }
 
 BoundarySpec::Radiation read_radiation(const CaseReader& reader, const YAML::Node& node,
@@ -130,14 +217,22 @@ HeatSource read_source(const CaseReader& reader, const YAML::Node& entry,
     const YAML::Node ids = entry["materials"];
     if (!ids.IsSequence())
       reader.fail(ids, field + ".materials", "a list of material ids");
-    for (std::size_t j = 0; j < ids.size(); ++j)
-      source.material_ids.push_back(reader.count(ids[j],
-                                                 index_path(field + ".materials", j),
-                                                 "a material id from 0 to 255", 0, 255));
+    for (std::size_t j = 0; j < ids.size(); ++j) {
+      const std::string path = index_path(field + ".materials", j);
+      const auto id = reader.count(ids[j], path, "a material id from 0 to 255", 0, 255);
+      if (std::find(source.material_ids.begin(), source.material_ids.end(), id) !=
+          source.material_ids.end())
+        reader.fail(ids[j], path, "a material id not already in the list");
+      source.material_ids.push_back(id);
+    }
   }
-  if (entry["start"])
+  if (entry["start"]) {
     source.start =
         reader.quantity(entry["start"], field + ".start", dimension::time(), "a time");
+    if (!(source.start >= 0.0))
+      reader.fail(entry["start"], field + ".start",
+                  "a start time >= 0 s (the run starts at 0 s)");
+  }
   if (entry["end"])
     source.end =
         reader.quantity(entry["end"], field + ".end", dimension::time(), "a time");
