@@ -2,6 +2,7 @@
 // `quantacal check`: validates cards and compares them with their published measurements.
 #include "command_registry.h"
 #include "options.h"
+#include "output_units.h"
 
 #include <quantacal/cards/card.h>
 #include <quantacal/common/exceptions.h>
@@ -20,11 +21,11 @@ namespace {
 
 OptionParser check_parser() {
   OptionParser parser(
-      "check", "CARD... [--quiet]",
+      "check", "CARD... [--quiet] [--unit T=UNIT]",
       "Loads each CARD, builds its property table, and compares the model with every\n"
       "point of the card's `measurements` list. For each card a deviation table is\n"
       "printed:\n"
-      "  T_K         temperature of the measurement\n"
+      "  T_K         temperature of the measurement (T_degC, T_degF with --unit)\n"
       "  quantity    specific heat (J/mol/K), stored energy (J/mol, relative to the\n"
       "              card's reference temperature) or conductivity (W/m/K)\n"
       "  measured    the published value\n"
@@ -40,7 +41,11 @@ OptionParser check_parser() {
       "\n"
       "exit status of check: 0 all cards valid and every point within tolerance,\n"
       "1 all cards valid but some point outside tolerance, 2 some card invalid.");
-  parser.add_flag("quiet", "print only the summary lines").add_epilogue(exit_code_help());
+  parser.add_flag("quiet", "print only the summary lines")
+      .add_value("unit", "T=UNIT",
+                 "print temperatures in UNIT: T=K (default), T=degC, T=degF or T=mK\n"
+                 "(the other columns keep their units)")
+      .add_epilogue(exit_code_help());
   return parser;
 }
 
@@ -105,7 +110,7 @@ double model_value(const Material& material, const Measurement& m) {
 /// (inelastic electron-phonon scattering, about theta_R/20 to theta_R/2; see
 /// docs/theory.md) and the card has no conductivity measurements there.
 void warn_about_wiedemann_franz(const std::string& path, const Material& material,
-                                std::string& err) {
+                                const OutputUnit& t_unit, std::string& err) {
   const auto* metal =
       dynamic_cast<const MetalConductivity*>(&material.conductivity_model());
   if (!metal)
@@ -123,8 +128,9 @@ void warn_about_wiedemann_franz(const std::string& path, const Material& materia
   err += "quantacal check: warning: " + path +
          ": conductivity: the Wiedemann-Franz law is "
          "known to be off between " +
-         short_number(lo) + " K and " + short_number(hi) +
-         " K (intermediate temperatures) and the card has no conductivity measurements "
+         short_number(t_unit.value(lo)) + " " + t_unit.text + " and " +
+         short_number(t_unit.value(hi)) + " " + t_unit.text +
+         " (intermediate temperatures) and the card has no conductivity measurements "
          "there" +
          (metal->has_inelastic_correction()
               ? " (the Wilson inelastic factor is used, but is itself fitted)"
@@ -133,8 +139,8 @@ void warn_about_wiedemann_franz(const std::string& path, const Material& materia
 }
 
 /// Checks one card, appending its report to @p out and its errors to @p err.
-CardOutcome check_card(const std::string& path, bool quiet, std::string& out,
-                       std::string& err) {
+CardOutcome check_card(const std::string& path, bool quiet, const OutputUnit& t_unit,
+                       std::string& out, std::string& err) {
   CardOutcome outcome;
   MaterialPtr material;
   try {
@@ -170,24 +176,25 @@ CardOutcome check_card(const std::string& path, bool quiet, std::string& out,
   }
   outcome.valid = true;
   outcome.n_points = rows.size();
-  warn_about_wiedemann_franz(path, *material, err);
+  warn_about_wiedemann_franz(path, *material, t_unit, err);
 
   const Row* worst = nullptr;
   std::string table;
-  table += format("%-10s  %-13s  %-7s  %14s  %14s  %9s  %7s  %s\n", "T_K", "quantity",
-                  "unit", "measured", "model", "dev_%", "tol_%", "status");
+  table += format("%-10s  %-13s  %-7s  %14s  %14s  %9s  %7s  %s\n",
+                  ("T_" + t_unit.token).c_str(), "quantity", "unit", "measured", "model",
+                  "dev_%", "tol_%", "status");
   for (const auto& row : rows) {
     const bool inside = std::abs(row.deviation) <= row.m->tolerance;
     if (!inside)
       ++outcome.n_outside;
     if (!worst || std::abs(row.deviation) > std::abs(worst->deviation))
       worst = &row;
-    table +=
-        format("%-10s  %-13s  %-7s  %14s  %14s  %+9.3f  %7.3f  %s\n",
-               short_number(row.m->temperature).c_str(), quantity_name(row.m->quantity),
-               quantity_unit(row.m->quantity), short_number(row.m->value).c_str(),
-               short_number(row.model).c_str(), 100.0 * row.deviation,
-               100.0 * row.m->tolerance, inside ? "ok" : "OUTSIDE");
+    table += format("%-10s  %-13s  %-7s  %14s  %14s  %+9.3f  %7.3f  %s\n",
+                    short_number(t_unit.value(row.m->temperature)).c_str(),
+                    quantity_name(row.m->quantity), quantity_unit(row.m->quantity),
+                    short_number(row.m->value).c_str(), short_number(row.model).c_str(),
+                    100.0 * row.deviation, 100.0 * row.m->tolerance,
+                    inside ? "ok" : "OUTSIDE");
   }
 
   const std::string title = path + " (" + material->name() + ")";
@@ -207,9 +214,10 @@ CardOutcome check_card(const std::string& path, bool quiet, std::string& out,
   else {
     summary += std::to_string(rows.size() - outcome.n_outside) + " of " +
                std::to_string(rows.size()) + " points within tolerance";
-    summary += format("; worst %+.3f %% (%s at %s K)", 100.0 * worst->deviation,
+    summary += format("; worst %+.3f %% (%s at %s %s)", 100.0 * worst->deviation,
                       quantity_name(worst->m->quantity),
-                      short_number(worst->m->temperature).c_str());
+                      short_number(t_unit.value(worst->m->temperature)).c_str(),
+                      t_unit.text.c_str());
   }
   out += summary + (outcome.n_outside ? "  -> OUTSIDE TOLERANCE\n" : "\n");
   if (!quiet)
@@ -227,12 +235,16 @@ int run_check(const std::vector<std::string>& args) {
   if (options.positional.empty())
     throw UsageError("expected at least one CARD (" + parser.usage() + ")");
 
+  const OutputUnit t_unit = parse_output_units("check", options.text("unit"),
+                                               {{"T", dimension::temperature(), "K",
+                                                 "the temperature", "K, degC, degF, mK"}})
+                                .at("T");
   std::string out;
   std::string err;
   bool any_invalid = false;
   bool any_outside = false;
   for (const auto& path : options.positional) {
-    const CardOutcome outcome = check_card(path, options.has("quiet"), out, err);
+    const CardOutcome outcome = check_card(path, options.has("quiet"), t_unit, out, err);
     any_invalid = any_invalid || !outcome.valid;
     any_outside = any_outside || outcome.n_outside > 0;
   }

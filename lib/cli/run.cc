@@ -28,7 +28,8 @@ OptionParser run_parser() {
       "run", "<case.yaml> [options]",
       "Solves the transient heat-conduction case described by the case file\n"
       "(format: docs/cases.md) and writes probes.csv, energy.csv, summary.yaml,\n"
-      "cooling_curves.svg and fields.pvd into the case's output folder.\n"
+      "report.html, the plots (cooling curves, cooling rates, energy ledger; SVG and\n"
+      "PNG) and fields.pvd into the case's output folder (docs/results.md).\n"
       "Run it as `mpirun -np N quantacal run <case.yaml> [options]` on N MPI ranks.\n");
   parser.add_value("output", "DIR", "write into DIR instead of the case's output.folder")
       .add_value("formulation", "F",
@@ -38,7 +39,7 @@ OptionParser run_parser() {
                  "finite-element degree 1, 2 or 3 (overrides solver.degree)",
                  {"1", "2", "3"})
       .add_flag("no-fields", "do not write VTU/PVTU/PVD field files")
-      .add_flag("no-plot", "do not plot the cooling curves (no gnuplot script, no SVG)")
+      .add_flag("no-plot", "do not plot (no gnuplot scripts, no SVG or PNG)")
       .add_flag("resume",
                 "continue from the last checkpoint in the output folder (written with\n"
                 "output.checkpoint_interval); the result files are continued")
@@ -113,24 +114,45 @@ void install_test_kill_point(solver::RunOptions& run_options) {
 }
 
 /**
- * Runs gnuplot on the script the run wrote and renames its cooling_curves.svg.tmp;
- * a missing or failing gnuplot never fails the run (a warning says why).
+ * Runs gnuplot on each script the run wrote and renames its STEM.svg.tmp and
+ * STEM.png.tmp; a missing or failing gnuplot never fails the run (a warning says
+ * why).
  */
-void plot_cooling_curves(const solver::RunResult& result, std::ostream* log) {
-  if (result.plot_script.empty())
-    return;
+void make_plots(const solver::RunResult& result, std::ostream* log) {
   namespace fs = std::filesystem;
-  const fs::path folder = fs::path(result.plot_script).parent_path();
-  std::string warning = run_gnuplot(result.plot_script);
-  if (warning.empty()) {
-    std::error_code error;
-    fs::rename(folder / "cooling_curves.svg.tmp", folder / "cooling_curves.svg", error);
-    if (error)
-      warning = "cannot rename cooling_curves.svg.tmp (" + error.message() + ")";
+  for (const std::string& script : result.plot_scripts) {
+    const fs::path path(script);
+    const std::string stem = path.stem().string();
+    std::string warning = run_gnuplot(script);
+    for (const char* extension : {".svg", ".png"}) {
+      const fs::path made = path.parent_path() / (stem + extension);
+      std::error_code error;
+      if (warning.empty())
+        fs::rename(made.string() + ".tmp", made, error);
+      else
+        fs::remove(made.string() + ".tmp", error);
+      if (warning.empty() && error)
+        warning = "cannot rename " + stem + extension + ".tmp (" + error.message() + ")";
+    }
+    if (!warning.empty() && log)
+      *log << "warning: " << warning << ": " << stem << ".svg and " << stem
+           << ".png not made (the script " << stem << ".gp is written)\n";
   }
-  if (!warning.empty() && log)
-    *log << "warning: " << warning
-         << ": cooling_curves.svg not made (the script cooling_curves.gp is written)\n";
+}
+
+/** Writes report.html after the plots (a failure to write it is a warning). */
+void write_report(const solver::CaseDescription& description,
+                  const solver::RunResult& result, std::ostream* log) {
+  if (!description.output.report)
+    return;
+  try {
+    const std::string path = solver::write_report(description, result);
+    if (log)
+      *log << "report: " << path << '\n';
+  } catch (const std::exception& e) {
+    if (log)
+      *log << "warning: report.html not written: " << e.what() << '\n';
+  }
 }
 
 int run_command(const std::vector<std::string>& args) {
@@ -166,8 +188,10 @@ int run_command(const std::vector<std::string>& args) {
       run_options.resume = options.has("resume");
       install_test_kill_point(run_options);
       const solver::RunResult result = solver::run_case(description, run_options);
-      if (rank == 0)
-        plot_cooling_curves(result, run_options.log);
+      if (rank == 0) {
+        make_plots(result, run_options.log);
+        write_report(description, result, run_options.log);
+      }
       if (!result.completed)
         throw solver::stopped_run_error(description, result, run_options);
       return ok;

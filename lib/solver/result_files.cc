@@ -1,5 +1,5 @@
 // SPDX-License-Identifier: Apache-2.0
-// Result files of a run: CSV histories, the summary and the cooling-curve script.
+// Result files of a run: CSV histories and the summary.
 #include "result_files.h"
 
 #include <quantacal/common/exceptions.h>
@@ -9,6 +9,7 @@
 #include <filesystem>
 #include <fstream>
 #include <ios>
+#include <limits>
 #include <sstream>
 #include <system_error>
 
@@ -41,16 +42,25 @@ void prepare_output_folder(const std::string& folder, const std::string& case_fi
   fs::remove(probe, ec);
 }
 
-std::string probes_csv(const RunResult& result) {
+std::string probes_csv(const CaseDescription& description, const RunResult& result) {
+  const TemperatureScale scale(description.output.temperature_unit);
   std::ostringstream out;
-  out << "time_s";
+  out << "time [s]";
   for (const auto& name : result.probe_names)
-    out << ',' << name;
+    out << ',' << name << " [" << scale.symbol() << ']';
+  for (const auto& name : result.probe_names)
+    out << ',' << name << " dT/dt [" << scale.rate_symbol() << ']';
   out << '\n';
+  const double unknown = std::numeric_limits<double>::quiet_NaN();
   for (std::size_t k = 0; k < result.times.size(); ++k) {
     out << number(result.times[k]);
     for (std::size_t p = 0; p < result.probe_names.size(); ++p)
-      out << ',' << number(result.probe_temperatures[p][k]);
+      out << ',' << number(scale.value(result.probe_temperatures[p][k]));
+    for (std::size_t p = 0; p < result.probe_names.size(); ++p) {
+      const bool known =
+          p < result.probe_rates.size() && k < result.probe_rates[p].size();
+      out << ',' << number(scale.interval(known ? result.probe_rates[p][k] : unknown));
+    }
     out << '\n';
   }
   return out.str();
@@ -58,41 +68,13 @@ std::string probes_csv(const RunResult& result) {
 
 std::string energy_csv(const RunResult& result) {
   std::ostringstream out;
-  out << "time_s,stored_energy_J,boundary_heat_J,source_heat_J,relative_imbalance\n";
+  out << "time_s,stored_energy_J,boundary_heat_J,source_heat_J,remesh_change_J,"
+         "relative_imbalance\n";
   for (const auto& row : result.energy)
     out << number(row.time) << ',' << number(row.stored_energy) << ','
         << number(row.boundary_heat) << ',' << number(row.source_heat) << ','
-        << number(row.relative_imbalance) << '\n';
+        << number(row.remesh_change) << ',' << number(row.relative_imbalance) << '\n';
   return out.str();
-}
-
-std::vector<Crossing> find_crossings(const RunResult& result,
-                                     const std::vector<double>& temperatures) {
-  std::vector<Crossing> out;
-  for (std::size_t p = 0; p < result.probe_names.size(); ++p) {
-    const auto& history = result.probe_temperatures[p];
-    for (const double temperature : temperatures) {
-      Crossing crossing;
-      crossing.probe = result.probe_names[p];
-      crossing.temperature = temperature;
-      for (std::size_t k = 0; k + 1 < history.size(); ++k) {
-        const double before = history[k] - temperature;
-        const double after = history[k + 1] - temperature;
-        if (before == 0.0 && after == 0.0)
-          continue;
-        if ((before > 0.0 && after <= 0.0) || (before < 0.0 && after >= 0.0)) {
-          const double fraction = before / (before - after);
-          const double interval = result.times[k + 1] - result.times[k];
-          crossing.crossed = true;
-          crossing.time = result.times[k] + fraction * interval;
-          crossing.rate = (history[k + 1] - history[k]) / interval;
-          break;
-        }
-      }
-      out.push_back(crossing);
-    }
-  }
-  return out;
 }
 
 std::string quoted(const std::string& text) {
@@ -119,10 +101,16 @@ const char* geometry_name(Geometry geometry) {
 } // namespace
 
 std::string summary_yaml(const CaseDescription& description, const RunResult& result) {
+  const TemperatureScale scale(description.output.temperature_unit);
   std::ostringstream out;
-  out << "# quantacal run summary. SI units: s, K, J (planar 2D: J per metre of "
-         "depth).\n";
+  out << "# quantacal run summary. Units: s, J (planar 2D: J per metre of depth);\n"
+         "# temperatures in temperature_unit (the keys name it too), rates in "
+      << scale.rate_symbol() << (scale.rate_symbol() == "K/s" ? " (= degC/s)" : "")
+      << ":\n# rate = dT/dt (negative when cooling), cooling rate = -dT/dt "
+         "(docs/results.md).\n";
   out << "caution: " << quoted(run_caution()) << '\n';
+  out << "temperature_unit: " << scale.symbol() << '\n';
+  out << "rate_unit: " << scale.rate_symbol() << '\n';
   out << "case: " << quoted(description.name) << '\n';
   out << "case_file: " << quoted(description.file) << '\n';
   out << "geometry: " << geometry_name(description.geometry) << '\n';
@@ -137,6 +125,10 @@ std::string summary_yaml(const CaseDescription& description, const RunResult& re
       << '\n';
   out << "mesh:\n  cells: " << result.n_cells << "\n  dofs: " << result.n_dofs
       << "\n  degree: " << description.solver.degree << '\n';
+  if (description.adaptivity.enabled)
+    out << "  remeshes: " << result.steps.n_remeshes
+        << "\n  fewest_dofs: " << result.steps.fewest_dofs
+        << "\n  most_dofs: " << result.steps.most_dofs << '\n';
   out << "ranks: " << result.n_ranks << '\n';
   out << "steps:\n  accepted: " << result.steps.n_steps
       << "\n  rejected: " << result.steps.n_rejected
@@ -159,7 +151,8 @@ std::string summary_yaml(const CaseDescription& description, const RunResult& re
     out << "energy:\n  stored_change_J: "
         << number(e.stored_energy - result.energy.front().stored_energy)
         << "\n  boundary_heat_J: " << number(e.boundary_heat)
-        << "\n  source_heat_J: " << number(e.source_heat) << '\n';
+        << "\n  source_heat_J: " << number(e.source_heat)
+        << "\n  remesh_change_J: " << number(e.remesh_change) << '\n';
   }
   out << "warnings:";
   if (result.warnings.empty())
@@ -168,61 +161,11 @@ std::string summary_yaml(const CaseDescription& description, const RunResult& re
     out << '\n';
   for (const std::string& w : result.warnings)
     out << "  - " << quoted(w) << '\n';
-  out << "final_temperature_K:\n  minimum: " << number(result.minimum_temperature)
-      << "\n  maximum: " << number(result.maximum_temperature) << '\n';
-  out << "probes:\n";
-  if (result.probe_names.empty())
-    out << "  {}\n";
-  for (std::size_t p = 0; p < result.probe_names.size(); ++p) {
-    out << "  " << result.probe_names[p] << ":\n";
-    out << "    final_temperature_K: "
-        << number(result.probe_temperatures[p].empty()
-                      ? 0.0
-                      : result.probe_temperatures[p].back())
-        << '\n';
-    out << "    crossings:";
-    bool any = false;
-    for (const auto& c : result.crossings) {
-      if (c.probe != result.probe_names[p])
-        continue;
-      if (!any)
-        out << '\n';
-      any = true;
-      out << "      - temperature_K: " << number(c.temperature) << '\n';
-      if (c.crossed)
-        out << "        time_s: " << number(c.time)
-            << "\n        rate_K_per_s: " << number(c.rate) << '\n';
-      else
-        out << "        time_s: null  # not crossed during the run\n";
-    }
-    if (!any)
-      out << " []\n";
-  }
+  out << "final_temperature_" << scale.symbol()
+      << ":\n  minimum: " << number(scale.value(result.minimum_temperature))
+      << "\n  maximum: " << number(scale.value(result.maximum_temperature)) << '\n';
+  out << probe_summary_yaml(result, scale);
   return out.str();
-}
-
-std::string write_plot_script(const std::string& folder, const RunResult& result,
-                              const std::string& title,
-                              std::vector<std::string>& written) {
-  if (result.probe_names.empty())
-    return "";
-  std::ostringstream gp;
-  std::string safe_title = title;
-  std::replace(safe_title.begin(), safe_title.end(), '"', '\'');
-  gp << "# gnuplot script written by quantacal run; rerun with: gnuplot "
-        "cooling_curves.gp\n"
-     << "set terminal svg size 900,600 dynamic noenhanced font 'sans,12'\n"
-     << "set output 'cooling_curves.svg.tmp'\n"
-     << "set datafile separator ','\n"
-     << "set key autotitle columnhead\n"
-     << "set title \"" << safe_title << " (estimates: check against measurements)\"\n"
-     << "set xlabel 'time (s)'\nset ylabel 'temperature (K)'\nset grid\n"
-     << "plot for [i=2:" << (result.probe_names.size() + 1)
-     << "] 'probes.csv' using 1:i with lines linewidth 2\n";
-  const std::string script = (fs::path(folder) / "cooling_curves.gp").string();
-  write_file_atomically(script, gp.str());
-  written.push_back(script);
-  return script;
 }
 
 } // namespace quantacal::solver::detail

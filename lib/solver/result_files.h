@@ -1,11 +1,15 @@
 // SPDX-License-Identifier: Apache-2.0
 // Internal: the result files of a run other than the fields (no deal.II):
-// probes.csv, energy.csv, summary.yaml and the gnuplot script of the cooling
-// curves. Every file is written to a temporary name in the same folder and
-// renamed (quantacal::write_file_atomically), so a crash never leaves a
-// truncated file behind.
+// probes.csv, energy.csv and summary.yaml (the crossings and windows in
+// cooling_metrics.h, the gnuplot scripts in result_plots.h). Every file is written to a
+// temporary name in the same folder and renamed (quantacal::write_file_atomically), so a
+// crash never leaves a truncated file behind.
 #ifndef QUANTACAL_LIB_SOLVER_RESULT_FILES_H
 #define QUANTACAL_LIB_SOLVER_RESULT_FILES_H
+
+#include "cooling_metrics.h"
+#include "result_plots.h"
+#include "temperature_scale.h"
 
 #include <quantacal/common/files.h>
 #include <quantacal/solver/solver.h>
@@ -20,29 +24,20 @@ namespace quantacal::solver::detail {
 void prepare_output_folder(const std::string& folder, const std::string& case_file,
                            const CaseLocation& where);
 
-/** probes.csv text: header time_s then one column per probe, K. */
-std::string probes_csv(const RunResult& result);
+/**
+ * probes.csv text: `time [s]`, one temperature column per probe (`centre [degC]`,
+ * in OutputSpec::temperature_unit), then one dT/dt column per probe
+ * (`centre dT/dt [K/s]`, RunResult::probe_rates).
+ */
+std::string probes_csv(const CaseDescription& description, const RunResult& result);
 
 /** energy.csv text:
- * time_s,stored_energy_J,boundary_heat_J,source_heat_J,relative_imbalance. */
+ * time_s,stored_energy_J,boundary_heat_J,source_heat_J,remesh_change_J,
+ * relative_imbalance. */
 std::string energy_csv(const RunResult& result);
 
 /** summary.yaml text. */
 std::string summary_yaml(const CaseDescription& description, const RunResult& result);
-
-/** First crossing of each requested temperature by each probe, and the rate there. */
-std::vector<Crossing> find_crossings(const RunResult& result,
-                                     const std::vector<double>& temperatures);
-
-/**
- * Writes the gnuplot script cooling_curves.gp next to probes.csv: run in that
- * folder, it plots every probe history into cooling_curves.svg.tmp. Nothing is
- * written without probes.
- * @return the script's path (also appended to @p written), or "" if none was written
- */
-std::string write_plot_script(const std::string& folder, const RunResult& result,
-                              const std::string& title,
-                              std::vector<std::string>& written);
 
 /** Shortest round-trip text of a double. */
 std::string number(double value);

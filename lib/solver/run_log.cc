@@ -2,6 +2,8 @@
 // What a run prints: header, log lines, progress line, closing lines.
 #include "run_log.h"
 
+#include "temperature_scale.h"
+
 #include <quantacal/common/format.h>
 
 #include <iomanip>
@@ -16,6 +18,22 @@ const char* geometry_text(Geometry geometry) {
   return geometry == Geometry::planar         ? "2D planar"
          : geometry == Geometry::axisymmetric ? "2D axisymmetric"
                                               : "3D";
+}
+
+/** "centre 412.3 degC (-8.1 K/s), " for the first probe, or "". */
+std::string first_probe(const CaseDescription& description, const RunResult& result) {
+  if (result.probe_names.empty() || result.probe_temperatures.front().empty())
+    return "";
+  const TemperatureScale scale(description.output.temperature_unit);
+  std::ostringstream text;
+  text << std::fixed << std::setprecision(1) << result.probe_names.front() << ' '
+       << scale.value(result.probe_temperatures.front().back()) << ' ' << scale.symbol();
+  if (!result.probe_rates.empty() && !result.probe_rates.front().empty())
+    text << " (" << std::setprecision(3) << std::defaultfloat
+         << scale.interval(result.probe_rates.front().back()) << ' '
+         << scale.rate_symbol() << ')';
+  text << ", ";
+  return text.str();
 }
 
 } // namespace
@@ -51,16 +69,21 @@ void RunLog::header(const CaseDescription& description, const RunResult& result,
        << ", TR-BDF2, "
        << (description.solver.formulation == Formulation::energy ? "energy" : "capacity")
        << " form\n"
-       << "  output: " << (writing ? description.output.folder : std::string("(none)"))
+       << "  output: "
+       << (writing ? description.output.folder + " (temperatures in " +
+                         temperature_unit_name(description.output.temperature_unit) + ")"
+                   : std::string("(none)"))
        << "\n"
        << "  caution: " << run_caution();
   line(text.str());
 }
 
-void RunLog::progress(double time, double step, double end_time,
-                      const StepStatistics& steps, bool force) {
+void RunLog::progress(double time, double step, const CaseDescription& description,
+                      const RunResult& result, bool force) {
   if (!out_)
     return;
+  const double end_time = description.time.end;
+  const StepStatistics& steps = result.steps;
   const double wall = seconds_since(start_);
   if (!force && wall - last_progress_ < (terminal_ ? 0.25 : 5.0))
     return;
@@ -69,8 +92,9 @@ void RunLog::progress(double time, double step, double end_time,
   const double left = fraction > 0 ? wall * (1.0 - fraction) / fraction : 0.0;
   std::ostringstream text;
   text << std::setprecision(4) << "t = " << time << " s of " << end_time << " s, step "
-       << step << " s, steps " << steps.n_steps << " (" << steps.n_rejected
-       << " rejected), about " << std::setprecision(2) << std::fixed << left << " s left";
+       << step << " s, " << first_probe(description, result) << "steps " << steps.n_steps
+       << " (" << steps.n_rejected << " rejected), about " << std::setprecision(2)
+       << std::fixed << left << " s left";
   if (terminal_)
     *out_ << "\r\033[K" << text.str() << std::flush;
   else
@@ -92,8 +116,9 @@ void RunLog::closing(const CaseDescription& description, const RunResult& result
   for (const std::string& w : result.warnings)
     line("warning: " + w);
   if (writing)
-    line("results in " + description.output.folder +
-         " (probes.csv, energy.csv, summary.yaml, cooling_curves.svg, fields.pvd)");
+    line("results in " + description.output.folder + " (probes.csv, energy.csv, " +
+         "summary.yaml" + (description.output.fields ? ", fields.pvd" : "") +
+         (result.plot_scripts.empty() ? "" : ", the gnuplot scripts *.gp") + ")");
 }
 
 } // namespace quantacal::solver::detail

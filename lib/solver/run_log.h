@@ -32,11 +32,12 @@ public:
               unsigned int degree, bool writing) const;
 
   /**
-   * The progress line at time @p time after a step @p step; redrawn at most every
-   * 0.25 s on a terminal, 5 s elsewhere, unless @p force.
+   * The progress line at time @p time after a step @p step, with the first probe's
+   * temperature and dT/dt in the case's output unit; redrawn at most every 0.25 s on
+   * a terminal, 5 s elsewhere, unless @p force.
    */
-  void progress(double time, double step, double end_time, const StepStatistics& steps,
-                bool force);
+  void progress(double time, double step, const CaseDescription& description,
+                const RunResult& result, bool force);
 
   /** The closing lines: finished or stopped, counts, balance, wall time, results. */
   void closing(const CaseDescription& description, const RunResult& result, double time,

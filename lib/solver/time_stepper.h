@@ -55,6 +55,8 @@ public:
 
   /** The temperature at the end of the last attempted step (owned entries). */
   const Vector& attempted_temperature() const { return end_; }
+  /** The temperature at the stage point of the last attempted step (owned entries). */
+  const Vector& stage_temperature() const { return stage_; }
   /** The temperature at the current level (owned entries). */
   const Vector& temperature() const { return current_; }
   /** The sums assembled at the current level. */
