@@ -150,6 +150,8 @@ void Assembler<dim>::build_nodal_masses() {
       weights.add(dofs, local);
     }
     weights.compress(VectorOperation::add);
+    if (discretization_.has_hanging_nodes)
+      weights = condense_hanging(weights);
     NodalMass mass;
     mass.id = id;
     mass.shift = shift;
@@ -166,6 +168,33 @@ void Assembler<dim>::build_nodal_masses() {
     mass.absolute.resize(n);
     nodal_masses_.push_back(std::move(mass));
   }
+}
+
+// A hanging node's T is the weighted mean of its parents' (T_i = sum_j w_ij T_j), so
+// its row belongs to theirs: v_j += w_ij v_i, v_i = 0 (for a nodal mass, an energy
+// or a heat flow). The weights sum to 1, so the totals are kept; the hanging node
+// carries no equation of its own.
+template <int dim>
+Vector Assembler<dim>::condense_hanging(const Vector& weights) const {
+  Vector condensed = discretization_.owned_vector();
+  const auto& constraints = discretization_.constraints;
+  std::vector<types::global_dof_index> nodes;
+  std::vector<double> masses;
+  for (const auto i : discretization_.owned_dofs) {
+    const auto* entries = constraints.get_constraint_entries(i);
+    if (entries == nullptr || entries->empty()) {
+      nodes.push_back(i);
+      masses.push_back(weights[i]);
+      continue;
+    }
+    for (const auto& [j, w] : *entries) {
+      nodes.push_back(j);
+      masses.push_back(w * weights[i]);
+    }
+  }
+  condensed.add(nodes, masses);
+  condensed.compress(VectorOperation::add);
+  return condensed;
 }
 
 template <int dim>
@@ -451,6 +480,11 @@ AssembledSums Assembler<dim>::assemble(const Vector& temperature, double time,
   stored_energy_.compress(VectorOperation::add);
   absolute_energy_.compress(VectorOperation::add);
   heat_flow_.compress(VectorOperation::add);
+  if (discretization_.has_hanging_nodes) {
+    stored_energy_ = condense_hanging(stored_energy_);
+    absolute_energy_ = condense_hanging(absolute_energy_);
+    heat_flow_ = condense_hanging(heat_flow_);
+  }
   if (with_jacobian)
     discretization_.jacobian.compress(VectorOperation::add);
   return global_sums(local, failed, message);

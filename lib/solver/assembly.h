@@ -86,6 +86,8 @@ private:
   double source_density(dealii::types::material_id id, double time) const;
   /** The lumped weights of each material at its owned nodes (NodalMass). */
   void build_nodal_masses();
+  /** @p weights with each hanging node's entry moved to its parents. */
+  Vector condense_hanging(const Vector& weights) const;
   void add_lumped_energy(const Vector& temperature, const Vector* capacity_reference,
                          bool with_jacobian, AssembledSums& sums, bool& failed,
                          std::string& message);

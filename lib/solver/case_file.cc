@@ -22,6 +22,28 @@ namespace {
 
 using quantacal::detail::index_path;
 
+const char* const kCaseFile =
+    "a case file: a mapping with keys name, geometry, mesh, materials, ...";
+
+/** Whether @p text has more than blanks, comments, directives and bare "---"/"...". */
+bool has_content(const std::string& text) {
+  std::size_t start = 0;
+  while (start < text.size()) {
+    std::size_t end = text.find('\n', start);
+    if (end == std::string::npos)
+      end = text.size();
+    const std::string line = text.substr(start, end - start);
+    std::size_t first = line.find_first_not_of(" \t\r");
+    if (first != std::string::npos &&
+        (line.compare(first, 3, "---") == 0 || line.compare(first, 3, "...") == 0))
+      first = line.find_first_not_of(" \t\r", first + 3); // a marker alone is none
+    if (first != std::string::npos && line[first] != '#' && line[first] != '%')
+      return true;
+    start = end + 1;
+  }
+  return false;
+}
+
 void read_geometry(const CaseReader& reader, const YAML::Node& root,
                    CaseDescription& description) {
   if (!root["geometry"])
@@ -126,6 +148,11 @@ void read_regions(const CaseReader& reader, const YAML::Node& regions, int dim,
                                       "a material id from 0 to 255", 0, 255);
     region.lower = reader.point(entry["lower"], field + ".lower", dim);
     region.upper = reader.point(entry["upper"], field + ".upper", dim);
+    for (int k = 0; k < dim; ++k) // an empty box would select no cell
+      if (!(region.upper[k] > region.lower[k]))
+        reader.fail(entry["upper"][k], index_path(field + ".upper", k),
+                    "a coordinate above the box's lower one (" +
+                        format_double(region.lower[k]) + " m)");
     region.where = reader.where(entry, field);
     spec.regions.push_back(region);
   }
@@ -190,12 +217,14 @@ CaseDescription read_case(const YAML::Node& root, const CaseReader& reader,
                           bool load_materials) {
   CaseDescription description;
   description.file = reader.file();
+  if (!root.IsMap() && quantacal::detail::CardReader::line_of(root) == 0)
+    // No node where the parser stopped (a NUL byte ends yaml-cpp's stream): at 1:1.
+    throw InputError(reader.file(), 1, 1, "", "", std::string("expected ") + kCaseFile);
   if (!root.IsMap())
-    reader.fail(root, "",
-                "a case file: a mapping with keys name, geometry, mesh, materials, ...");
+    reader.fail(root, "", kCaseFile);
   reader.check_keys(root, "",
                     {"name", "geometry", "mesh", "materials", "initial_temperature",
-                     "boundaries", "sources", "time", "output", "solver"});
+                     "boundaries", "sources", "time", "output", "solver", "adaptivity"});
   for (const char* key : {"mesh", "materials", "initial_temperature", "time", "output"})
     if (!root[key])
       reader.fail_missing(root, "", key, "see docs/cases.md");
@@ -213,6 +242,7 @@ CaseDescription read_case(const YAML::Node& root, const CaseReader& reader,
   read_time(reader, root, description);
   read_output(reader, root, description);
   read_solver_settings(reader, root, description);
+  read_adaptivity(reader, root, description);
   return description;
 }
 
@@ -267,6 +297,10 @@ CaseDescription load_case_from_string(const std::string& text, const std::string
                                       const std::string& base_directory,
                                       bool load_materials) {
   const YAML::Node root = quantacal::detail::parse_yaml(text, file);
+  if (!detail::has_content(text)) // (blank, comments only, "---"): at its start
+    throw InputError(file, 1, 1, "", "",
+                     std::string("expected ") + detail::kCaseFile +
+                         " (the file is empty)");
   const detail::CaseReader reader(file, base_directory);
   try {
     return detail::read_case(root, reader, load_materials);

@@ -102,6 +102,8 @@ void add_boundary(const BoundarySpec& boundary, Canon& canon) {
   if (boundary.temperature)
     canon << *boundary.temperature;
   canon << bool(boundary.convection);
+  // The coefficient is the resolved curve: for a quenchant (docs/quenchants.md) its
+  // file's rows times the agitation factor, so an edited quenchant file is caught.
   if (boundary.convection)
     canon << boundary.convection->coefficient << boundary.convection->ambient_temperature;
   canon << bool(boundary.radiation);
@@ -223,6 +225,13 @@ case_fingerprint(const CaseDescription& description,
     add_solver(description.solver, canon);
     add("solver", canon, CaseLocation{0, 0, "solver", ""},
         "solver settings (solver block, or --degree / --formulation)");
+  }
+  {
+    const AdaptivitySpec& adaptivity = description.adaptivity;
+    Canon canon;
+    canon << adaptivity.enabled << adaptivity.every << adaptivity.levels
+          << adaptivity.max_cells << adaptivity.refine_above << adaptivity.coarsen_below;
+    add("adaptivity", canon, at(adaptivity.where, "adaptivity"), "adaptivity settings");
   }
   return out;
 }

@@ -2,6 +2,7 @@
 // The vocabulary of case files on top of the cards layer's CardReader.
 #include "case_reader.h"
 
+#include <quantacal/common/constants.h>
 #include <quantacal/common/exceptions.h>
 
 #include <charconv>
@@ -109,7 +110,14 @@ bool CaseReader::boolean(const YAML::Node& node, const std::string& field) const
 
 double CaseReader::positive(const YAML::Node& node, const std::string& field,
                             const Dimension& dimension, const std::string& what) const {
-  const double v = quantity(node, field, dimension, what);
+  double v = quantity(node, field, dimension, what);
+  if (dimension == dimension::temperature()) {
+    // A temperature here is a difference (a tolerance, an error estimate): "0.1 degC"
+    // is 0.1 K, not 273.25 K.
+    const Quantity q = parse_quantity(text(node, field));
+    if (q.is_temperature_offset)
+      v = q.value - celsius_offset;
+  }
   if (!(v > 0.0))
     fail(node, field, what + " > 0");
   return v;
@@ -147,6 +155,16 @@ std::string CaseReader::path(const YAML::Node& node, const std::string& field) c
   return p.lexically_normal().string();
 }
 
+void CaseReader::check_abscissa(const YAML::Node& node, const std::string& field,
+                                const CurveColumns& columns, double x) const {
+  // A surface temperature is absolute (> 0 K); a time counts from the start of the
+  // run (>= 0 s).
+  if (columns.x_dimension == dimension::temperature() && !(x > 0.0))
+    fail(node, field, columns.x_description + " > 0 K");
+  if (columns.x_dimension == dimension::time() && !(x >= 0.0))
+    fail(node, field, columns.x_description + " >= 0 s (from the start of the run)");
+}
+
 Curve CaseReader::curve(const YAML::Node& node, const std::string& field,
                         const CurveColumns& columns) const {
   const std::string& x_what = columns.x_description;
@@ -169,6 +187,7 @@ Curve CaseReader::curve(const YAML::Node& node, const std::string& field,
       fail(pair, row, "a pair [" + x_what + ", " + y_what + "]");
     const double x = quantity(pair[0], row + "[0]", columns.x_dimension, x_what);
     const double y = quantity(pair[1], row + "[1]", columns.y_dimension, y_what);
+    check_abscissa(pair[0], row + "[0]", columns, x);
     if (!xs.empty() && !(x > xs.back()))
       fail(pair[0], row + "[0]", "values increasing down the table");
     if (columns.positive_y && !(y > 0.0))

@@ -68,7 +68,10 @@ public:
   /** true/yes/on or false/no/off. */
   bool boolean(const YAML::Node& node, const std::string& field) const;
 
-  /** A quantity > 0. */
+  /**
+   * A quantity > 0. A temperature read here is a difference (a tolerance, an
+   * error estimate): "0.1 degC" gives 0.1 K; absolute temperatures use temperature().
+   */
   double positive(const YAML::Node& node, const std::string& field,
                   const Dimension& dimension, const std::string& what) const;
 
@@ -91,11 +94,19 @@ public:
     bool positive_y = false;   ///< y > 0 (else y >= 0)
   };
 
-  /** A single value (a constant) or a table of pairs [[x, y], ...], x increasing. */
+  /**
+   * A single value (a constant) or a table of pairs [[x, y], ...], x increasing;
+   * a temperature column x > 0 K, a time column x >= 0 s; y > 0 if positive_y,
+   * else a table's y >= 0 (the caller checks a single value).
+   */
   Curve curve(const YAML::Node& node, const std::string& field,
               const CurveColumns& columns) const;
 
 private:
+  /** The domain of a curve's first column: temperatures > 0 K, times >= 0 s. */
+  void check_abscissa(const YAML::Node& node, const std::string& field,
+                      const CurveColumns& columns, double x) const;
+
   quantacal::detail::CardReader cards_;
   std::string base_directory_;
 };
@@ -117,6 +128,8 @@ void read_output(const CaseReader& reader, const YAML::Node& root,
                  CaseDescription& description);
 void read_solver_settings(const CaseReader& reader, const YAML::Node& root,
                           CaseDescription& description);
+void read_adaptivity(const CaseReader& reader, const YAML::Node& root,
+                     CaseDescription& description); // case_adaptivity.cc
 
 } // namespace quantacal::solver::detail
 

@@ -2,6 +2,10 @@
 // Reading the `time`, `output` and `solver` blocks of a case file (docs/cases.md).
 #include "case_reader.h"
 
+#include <quantacal/common/format.h>
+#include <quantacal/common/text.h>
+
+#include <algorithm>
 #include <set>
 
 namespace quantacal::solver::detail {
@@ -64,9 +68,61 @@ void read_crossing_temperatures(const CaseReader& reader, const YAML::Node& list
                                 OutputSpec& output) {
   if (!list.IsSequence())
     reader.fail(list, "output.crossing_temperatures", "a list of temperatures");
-  for (std::size_t i = 0; i < list.size(); ++i)
-    output.crossing_temperatures.push_back(
-        reader.temperature(list[i], index_path("output.crossing_temperatures", i)));
+  for (std::size_t i = 0; i < list.size(); ++i) {
+    const std::string field = index_path("output.crossing_temperatures", i);
+    const double t = reader.temperature(list[i], field);
+    if (std::find(output.crossing_temperatures.begin(),
+                  output.crossing_temperatures.end(),
+                  t) != output.crossing_temperatures.end())
+      reader.fail(list[i], field, "a temperature not already in the list");
+    output.crossing_temperatures.push_back(t);
+  }
+}
+
+/** output.windows: pairs of temperatures, each stored upper first. */
+void read_windows(const CaseReader& reader, const YAML::Node& list, OutputSpec& output) {
+  const std::string expected =
+      "a pair of two different temperatures, e.g. [\"400 degC\", \"290 degC\"]";
+  if (!list.IsSequence())
+    reader.fail(list, "output.windows", "a list of temperature pairs, each " + expected);
+  for (std::size_t i = 0; i < list.size(); ++i) {
+    const std::string field = index_path("output.windows", i);
+    const YAML::Node pair = list[i];
+    if (!pair.IsSequence() || pair.size() != 2)
+      reader.fail(pair, field, expected);
+    const double a = reader.temperature(pair[0], index_path(field, 0));
+    const double b = reader.temperature(pair[1], index_path(field, 1));
+    if (a == b)
+      reader.fail(pair, field, expected);
+    output.windows.push_back({std::max(a, b), std::min(a, b), reader.where(pair, field)});
+  }
+}
+
+/**
+ * output.temperature_unit, or else the unit the case's initial temperature is
+ * written in (a temperature is written in K, mK, degC or degF).
+ */
+TemperatureUnit read_temperature_unit(const CaseReader& reader, const YAML::Node& root,
+                                      const YAML::Node& block) {
+  const std::vector<std::pair<std::string, TemperatureUnit>> units = {
+      {"K", TemperatureUnit::kelvin},
+      {"degC", TemperatureUnit::celsius},
+      {"degF", TemperatureUnit::fahrenheit}};
+  if (block["temperature_unit"]) {
+    const YAML::Node node = block["temperature_unit"];
+    const std::string text = reader.text(node, "output.temperature_unit");
+    for (const auto& [name, unit] : units)
+      if (text == name)
+        return unit;
+    reader.fail(node, "output.temperature_unit",
+                "K, degC or degF" + did_you_mean(text, {"K", "degC", "degF"}));
+  }
+  const std::string initial =
+      reader.text(root["initial_temperature"], "initial_temperature");
+  for (const auto& [name, unit] : units)
+    if (name != "K" && initial.find(name) != std::string::npos)
+      return unit;
+  return TemperatureUnit::kelvin;
 }
 
 /** `mass` and `formulation`, two words of the solver block. */
@@ -125,15 +181,28 @@ void read_time(const CaseReader& reader, const YAML::Node& root,
     reader.fail(block["first_step"], "time.first_step",
                 "a first step no longer than time.end");
   read_step_limits(reader, block, description.time);
+  const TimeSpec& time = description.time;
+  if (block["min_step"] && time.min_step > time.first_step)
+    reader.fail(block["min_step"], "time.min_step",
+                "a smallest step no longer than time.first_step (" +
+                    format_double(time.first_step) + " s)");
+  if (block["max_step"] && time.max_step < time.first_step)
+    reader.fail(block["max_step"], "time.max_step",
+                "a largest step no shorter than time.first_step (" +
+                    format_double(time.first_step) + " s)");
+  if (block["max_step"] && time.max_step > time.end)
+    reader.fail(block["max_step"], "time.max_step",
+                "a largest step no longer than time.end (" + format_double(time.end) +
+                    " s)");
 }
 
 void read_output(const CaseReader& reader, const YAML::Node& root,
                  CaseDescription& description) {
   const YAML::Node block = root["output"];
   reader.check_keys(block, "output",
-                    {"folder", "interval", "fields", "plot", "probes",
-                     "crossing_temperatures", "checkpoint_interval",
-                     "checkpoint_wall_interval"});
+                    {"folder", "interval", "fields", "plot", "report", "probes",
+                     "crossing_temperatures", "windows", "temperature_unit",
+                     "checkpoint_interval", "checkpoint_wall_interval"});
   description.output.where = reader.where(block, "output");
   if (!block["folder"])
     reader.fail_missing(block, "output", "folder", "an output folder");
@@ -142,6 +211,10 @@ void read_output(const CaseReader& reader, const YAML::Node& root,
   if (block["interval"])
     description.output.interval = reader.positive(block["interval"], "output.interval",
                                                   dimension::time(), "a time");
+  if (block["interval"] && description.output.interval > description.time.end)
+    reader.fail(block["interval"], "output.interval",
+                "an interval no longer than time.end (" +
+                    format_double(description.time.end) + " s)");
   if (block["checkpoint_interval"])
     description.output.checkpoint_interval =
         reader.positive(block["checkpoint_interval"], "output.checkpoint_interval",
@@ -159,6 +232,11 @@ void read_output(const CaseReader& reader, const YAML::Node& root,
   if (block["crossing_temperatures"])
     read_crossing_temperatures(reader, block["crossing_temperatures"],
                                description.output);
+  if (block["report"])
+    description.output.report = reader.boolean(block["report"], "output.report");
+  if (block["windows"])
+    read_windows(reader, block["windows"], description.output);
+  description.output.temperature_unit = read_temperature_unit(reader, root, block);
 }
 
 void read_solver_settings(const CaseReader& reader, const YAML::Node& root,

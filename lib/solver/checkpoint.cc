@@ -44,7 +44,7 @@ void serialize(Archive& ar, StepControl::State& s, unsigned int) {
 }
 template <class Archive>
 void serialize(Archive& ar, EnergyLedger::State& s, unsigned int) {
-  ar& s.initial_stored& s.shift& s.boundary_heat& s.source_heat;
+  ar& s.initial_stored& s.shift& s.boundary_heat& s.source_heat& s.remesh_change;
 }
 template <class Archive>
 void serialize(Archive& ar, StepperState& s, unsigned int) {
@@ -56,12 +56,14 @@ void serialize(Archive& ar, FieldSeries& s, unsigned int) {
 }
 template <class Archive>
 void serialize(Archive& ar, EnergyRecord& r, unsigned int) {
-  ar& r.time& r.stored_energy& r.boundary_heat& r.source_heat& r.relative_imbalance;
+  ar& r.time& r.stored_energy& r.boundary_heat& r.source_heat& r.remesh_change& r
+      .relative_imbalance;
 }
 template <class Archive>
 void serialize(Archive& ar, StepStatistics& s, unsigned int) {
   ar& s.n_steps& s.n_rejected& s.n_newton_iterations& s.n_linear_iterations& s
-      .n_jacobian_assemblies& s.n_residual_assemblies& s.smallest_step& s.largest_step;
+      .n_jacobian_assemblies& s.n_residual_assemblies& s.smallest_step& s.largest_step& s
+      .n_remeshes& s.most_dofs& s.fewest_dofs;
 }
 template <class Archive>
 void serialize(Archive& ar, PhaseTimes& t, unsigned int) {
@@ -73,7 +75,7 @@ void serialize(Archive& ar, RunState& s, unsigned int) {
   ar& s.time& s.index& s.next_checkpoint_time& s.wall_seconds& s.control& s.ledger& s
       .stepper& s.transformations& s.fields;
   RunResult& r = s.result;
-  ar& r.probe_names& r.times& r.probe_temperatures& r.energy& r
+  ar& r.probe_names& r.times& r.probe_temperatures& r.probe_rates& r.energy& r
       .worst_relative_imbalance& r.steps& r.timings& r.written_files;
 }
 
@@ -87,7 +89,8 @@ namespace fs = std::filesystem;
 
 /// First line of state.bin's archive: what it is and its layout version.
 constexpr const char* state_magic = "quantacal checkpoint state";
-constexpr unsigned int state_format = 1;
+// 2: the ledger's remesh change; 3: the probes' dT/dt
+constexpr unsigned int state_format = 3;
 constexpr unsigned int record_format = 1;
 constexpr const char* state_file = "state.bin";
 constexpr const char* forest_file = "mesh";

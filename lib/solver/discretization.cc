@@ -82,6 +82,8 @@ void Discretization<dim>::setup(const CaseDescription& description,
   constraints.clear();
   constraints.reinit(relevant_dofs);
   DoFTools::make_hanging_node_constraints(dof_handler, constraints);
+  has_hanging_nodes =
+      Utilities::MPI::max(constraints.n_constraints() > 0 ? 1 : 0, communicator) > 0;
   fixed_dofs = constrain_fixed_temperatures(description, dof_handler, owned_dofs,
                                             fixed_boundaries, constraints);
   constraints.close();

@@ -79,6 +79,8 @@ public:
   dealii::IndexSet owned_dofs;
   dealii::IndexSet relevant_dofs;
   dealii::AffineConstraints<double> constraints;
+  /// the mesh has hanging nodes somewhere (on any rank): an adapted mesh
+  bool has_hanging_nodes = false;
   /// owned fixed-temperature nodes and the index of their boundary condition
   std::vector<std::pair<dealii::types::global_dof_index, std::size_t>> fixed_dofs;
   dealii::TrilinosWrappers::SparseMatrix jacobian;

@@ -33,10 +33,12 @@ void EnergyLedger::record(double time, double stored, RunResult& result) const {
   row.stored_energy = stored + shift_;
   row.boundary_heat = boundary_heat_;
   row.source_heat = source_heat_;
+  row.remesh_change = remesh_change_;
   const double change = stored - initial_stored_;
   const double tiny = std::max(1e-300, 1e-30 * std::abs(initial_stored_));
   row.relative_imbalance =
-      std::abs(change - boundary_heat_ - source_heat_) / std::max(std::abs(change), tiny);
+      std::abs(change - boundary_heat_ - source_heat_ - remesh_change_) /
+      std::max(std::abs(change), tiny);
   if (result.energy.size() > 0)
     result.worst_relative_imbalance =
         std::max(result.worst_relative_imbalance, row.relative_imbalance);

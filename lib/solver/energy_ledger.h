@@ -43,6 +43,13 @@ public:
   void add_step(const StepHeat& heat);
 
   /**
+   * Adds the change of stored energy, J, of a move onto a new mesh (the stored
+   * energy assembled on the new mesh minus that on the old one): interpolation is
+   * not heat, so it is kept apart from the physical balance.
+   */
+  void add_remesh(double change) { remesh_change_ += change; }
+
+  /**
    * The ledger row at @p time with the stored energy @p stored (without the shift),
    * appended to @p result (energy, worst_relative_imbalance).
    */
@@ -54,13 +61,17 @@ public:
     double shift = 0.0;          ///< J
     double boundary_heat = 0.0;  ///< J
     double source_heat = 0.0;    ///< J
+    double remesh_change = 0.0;  ///< J
   };
-  State state() const { return {initial_stored_, shift_, boundary_heat_, source_heat_}; }
+  State state() const {
+    return {initial_stored_, shift_, boundary_heat_, source_heat_, remesh_change_};
+  }
   void restore(const State& state) {
     initial_stored_ = state.initial_stored;
     shift_ = state.shift;
     boundary_heat_ = state.boundary_heat;
     source_heat_ = state.source_heat;
+    remesh_change_ = state.remesh_change;
   }
 
 private:
@@ -68,6 +79,7 @@ private:
   double shift_ = 0.0;
   double boundary_heat_ = 0.0;
   double source_heat_ = 0.0;
+  double remesh_change_ = 0.0;
 };
 
 } // namespace quantacal::solver::detail

@@ -138,6 +138,10 @@ unsigned int StageSolver<dim>::solve_linear(double residual_norm, double target)
   for (const auto& [i, b] : discretization_.fixed_dofs)
     update_[i] = 0.0;
   update_.compress(VectorOperation::insert);
+  // hanging nodes of an adapted mesh follow their parents (the fixed-temperature
+  // lines are homogeneous here: a fixed node's update stays 0)
+  if (discretization_.has_hanging_nodes)
+    discretization_.constraints.distribute(update_);
   return iterations;
 }
 

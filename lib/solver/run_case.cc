@@ -11,13 +11,14 @@
 //            checkpoint (checkpoint.h);
 //   advance  TR-BDF2 steps (time_stepper.h, each stage a Newton solve, newton.h)
 //            under the step-size control (step_control.h) until the end time,
-//            with a checkpoint where one is due;
+//            with a new adapted mesh (remesh.h) and a checkpoint where due;
 //   finish   the final files (result_files.h, field_output.h) and the closing
 //            lines of the log (run_log.h).
 #include "assembly.h"
 #include "case_errors.h"
 #include "case_fingerprint.h"
 #include "checkpoint.h"
+#include "cooling_rates.h"
 #include "discretization.h"
 #include "energy_ledger.h"
 #include "field_output.h"
@@ -25,6 +26,7 @@
 #include "mesh_binding.h"
 #include "newton.h"
 #include "probes.h"
+#include "remesh.h"
 #include "result_files.h"
 #include "run_log.h"
 #include "step_control.h"
@@ -60,11 +62,14 @@ public:
 private:
   void prepare_output_folder() const;
   void set_up();
+  void build_solvers();
   void start();
   double restore();
   bool advance(double& time);
   bool retry_or_stop(double time, double step);
   void accept(const StepPlan& plan, const StepHeat& heat, double error, double& time);
+  void adapt_mesh(double time);
+  void count_dofs();
   void finish(double time);
   void record(double time, double stored);
   void write_tables(bool final_write);
@@ -82,6 +87,9 @@ private:
   RunLog log_;
   RunResult result_;
   std::map<types::material_id, double> initial_temperatures_;
+  std::map<types::material_id, MaterialPtr> materials_;
+  std::map<types::material_id, double> energy_shift_;
+  BoundaryBinding boundaries_;
   fe::MaterialField<dim> field_;
   std::unique_ptr<Assembler<dim>> assembler_;
   std::unique_ptr<StageSolver<dim>> stage_solver_;
@@ -146,28 +154,16 @@ void CaseRun<dim>::set_up() {
       check_fingerprint(description_, *resume_from_, fingerprint_, true);
   }
   initial_temperatures_ = materials.initial_temperatures;
+  materials_ = materials.materials;
   field_ = fe::MaterialField<dim>(materials.materials);
-  std::map<types::material_id, double> energy_shift;
   for (const auto& [id, material] : materials.materials)
-    energy_shift[id] = field_.energy(id, initial_temperatures_[id]);
-  const BoundaryBinding boundaries = bind_boundaries(description_, ids, log_);
-  discretization_.setup(description_, boundaries.fixed);
-  assembler_ =
-      std::make_unique<Assembler<dim>>(description_, discretization_, field_,
-                                       energy_shift, boundaries.natural, result_.timings);
-  stage_solver_ = std::make_unique<StageSolver<dim>>(description_, discretization_,
-                                                     *assembler_, result_);
-  stepper_ =
-      std::make_unique<TimeStepper<dim>>(description_, discretization_, *stage_solver_);
-  ghosted_temperature_.reinit(discretization_.owned_dofs, discretization_.relevant_dofs,
-                              discretization_.communicator);
-  probes_ = std::make_unique<ProbeSet<dim>>(description_, discretization_);
+    energy_shift_[id] = field_.energy(id, initial_temperatures_[id]);
+  boundaries_ = bind_boundaries(description_, ids, log_);
+  discretization_.setup(description_, boundaries_.fixed);
+  build_solvers();
   fields_ = std::make_unique<FieldWriter<dim>>(description_, discretization_, field_,
                                                writing_ && description_.output.fields);
-  transformations_ =
-      std::make_unique<TransformationWatch<dim>>(discretization_, materials.materials);
-  result_.n_cells = discretization_.triangulation.n_global_active_cells();
-  result_.n_dofs = discretization_.dof_handler.n_dofs();
+  count_dofs();
   for (const Probe& probe : description_.output.probes)
     result_.probe_names.push_back(probe.name);
   result_.probe_temperatures.assign(probes_->size(), {});
@@ -216,6 +212,7 @@ double CaseRun<dim>::restore() {
   fields_->restore(state.fields);
   result_.times = state.result.times;
   result_.probe_temperatures = state.result.probe_temperatures;
+  result_.probe_rates = state.result.probe_rates;
   result_.energy = state.result.energy;
   result_.worst_relative_imbalance = state.result.worst_relative_imbalance;
   result_.steps = state.result.steps;
@@ -235,6 +232,79 @@ double CaseRun<dim>::restore() {
   write_tables(false);
   resume_from_.reset();
   return state.time;
+}
+
+// The parts that hold vectors of the mesh: built at the start and after each remesh.
+template <int dim>
+void CaseRun<dim>::build_solvers() {
+  assembler_ = std::make_unique<Assembler<dim>>(description_, discretization_, field_,
+                                                energy_shift_, boundaries_.natural,
+                                                result_.timings);
+  stage_solver_ = std::make_unique<StageSolver<dim>>(description_, discretization_,
+                                                     *assembler_, result_);
+  stepper_ =
+      std::make_unique<TimeStepper<dim>>(description_, discretization_, *stage_solver_);
+  ghosted_temperature_.reinit(discretization_.owned_dofs, discretization_.relevant_dofs,
+                              discretization_.communicator);
+  probes_ = std::make_unique<ProbeSet<dim>>(description_, discretization_);
+  transformations_ =
+      std::make_unique<TransformationWatch<dim>>(discretization_, materials_);
+}
+
+template <int dim>
+void CaseRun<dim>::count_dofs() {
+  result_.n_cells = discretization_.triangulation.n_global_active_cells();
+  result_.n_dofs = discretization_.dof_handler.n_dofs();
+  StepStatistics& steps = result_.steps;
+  steps.most_dofs = std::max(steps.most_dofs, result_.n_dofs);
+  steps.fewest_dofs = steps.fewest_dofs == 0
+                          ? result_.n_dofs
+                          : std::min(steps.fewest_dofs, result_.n_dofs);
+}
+
+// Every adaptivity.every accepted steps: refine and coarsen where the temperature
+// field asks for it (remesh.h), move the current and previous levels to the new mesh,
+// assemble the stored energy and heat flow there and book the change of stored
+// energy the interpolation made apart from the heat (energy_ledger.h). The ledger row
+// of this time, recorded before, stays that of the old mesh.
+template <int dim>
+void CaseRun<dim>::adapt_mesh(double time) {
+  const AdaptivitySpec& spec = description_.adaptivity;
+  if (!spec.enabled || result_.steps.n_steps % spec.every != 0 || control_.finished(time))
+    return;
+  const auto begin = Clock::now();
+  const RemeshMarks marks = mark_cells(discretization_, ghosted_temperature_, spec,
+                                       description_.mesh.refinements);
+  if (!marks.any())
+    return;
+  const StepperState state = stepper_->state();
+  const auto watched = transformations_->reduced_state();
+  Vector current = stepper_->temperature();
+  Vector previous = *stepper_->level_vectors()[1];
+  refine_and_transfer(discretization_, description_, boundaries_.fixed,
+                      {&current, &previous});
+  build_solvers();
+  transformations_->restore(watched);
+  ghosted_temperature_ = current;
+  AssembledSums sums;
+  try {
+    sums = assembler_->assemble(ghosted_temperature_, time, 0.0, &ghosted_temperature_,
+                                false);
+  } catch (const StageFailure& failure) {
+    throw NumericalError(
+        "quantacal::solver::run_case",
+        "the field moved onto the adapted mesh at t = " + format_double(time) +
+            " s is not one the materials accept (" + failure.reason + ")");
+  }
+  stepper_->start(current, assembler_->stored_energy(), assembler_->heat_flow(), sums);
+  *stepper_->level_vectors()[1] = previous;
+  StepperState moved = state;
+  moved.sums = sums;
+  stepper_->restore(moved);
+  ledger_.add_remesh(sums.stored - state.sums.stored);
+  ++result_.steps.n_remeshes;
+  count_dofs();
+  result_.timings.setup += seconds_since(begin);
 }
 
 template <int dim>
@@ -310,6 +380,9 @@ void CaseRun<dim>::accept(const StepPlan& plan, const StepHeat& heat, double err
   ledger_.add_step(heat);
   transformations_->step(stepper_->temperature(), stepper_->attempted_temperature(),
                          plan.step, plan.end_time);
+  record_step_rates(result_, discretization_, *probes_, stepper_->temperature(),
+                    stepper_->stage_temperature(), stepper_->attempted_temperature(),
+                    plan.step);
   stepper_->accept();
   control_.accept(plan, error);
   time = plan.end_time;
@@ -325,11 +398,12 @@ void CaseRun<dim>::accept(const StepPlan& plan, const StepHeat& heat, double err
     fields_->write(ghosted_temperature_, time, result_);
     write_tables(false);
   }
+  adapt_mesh(time);
   if (checkpoint_due(time))
     write_checkpoint_now(time);
   if (options_.on_step)
     options_.on_step(time, plan.step);
-  log_.progress(time, plan.step, description_.time.end, steps, output_due);
+  log_.progress(time, plan.step, description_, result_, output_due);
 }
 
 template <int dim>
@@ -379,6 +453,7 @@ void CaseRun<dim>::write_checkpoint_now(double time) {
   state.result.probe_names = result_.probe_names;
   state.result.times = result_.times;
   state.result.probe_temperatures = result_.probe_temperatures;
+  state.result.probe_rates = result_.probe_rates;
   state.result.energy = result_.energy;
   state.result.worst_relative_imbalance = result_.worst_relative_imbalance;
   state.result.steps = result_.steps;
@@ -396,7 +471,8 @@ void CaseRun<dim>::write_tables(bool final_write) {
     return;
   const auto begin = Clock::now();
   const std::filesystem::path folder(description_.output.folder);
-  write_file_atomically((folder / "probes.csv").string(), probes_csv(result_));
+  write_file_atomically((folder / "probes.csv").string(),
+                        probes_csv(description_, result_));
   write_file_atomically((folder / "energy.csv").string(), energy_csv(result_));
   if (final_write) {
     result_.written_files.push_back((folder / "probes.csv").string());
@@ -421,13 +497,13 @@ void CaseRun<dim>::finish(double time) {
   result_.minimum_temperature = Utilities::MPI::min(t_min, discretization_.communicator);
   result_.maximum_temperature = Utilities::MPI::max(t_max, discretization_.communicator);
   result_.crossings = find_crossings(result_, description_.output.crossing_temperatures);
+  result_.windows = find_window_passages(result_, description_.output.windows);
   result_.warnings = transformations_->warnings();
   fields_->write(ghosted_temperature_, time, result_);
   result_.timings.total = wall_seconds();
   write_tables(true);
   if (writing_ && description_.output.plot && discretization_.rank == 0)
-    result_.plot_script = write_plot_script(description_.output.folder, result_,
-                                            description_.name, result_.written_files);
+    write_plot_scripts(description_, result_);
   log_.closing(description_, result_, time, writing_);
   if (!result_.completed && options_.throw_on_failure)
     throw stopped_run_error(description_, result_, options_);

@@ -168,7 +168,7 @@ TEST(SolverErrors, DivergingCaseStopsWithClearMessageAndCompleteFiles) {
   std::string header, first;
   std::getline(csv, header);
   std::getline(csv, first);
-  EXPECT_EQ(header, "time_s,centre");
+  EXPECT_EQ(header, "time [s],centre [degC],centre dT/dt [K/s]");
   EXPECT_EQ(first.rfind("0,", 0), 0u);
   std::ifstream summary(dir / "out" / "summary.yaml");
   std::stringstream ss;

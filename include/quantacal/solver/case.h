@@ -155,16 +155,41 @@ struct Probe {
   CaseLocation where;
 };
 
+/**
+ * The scale temperatures are written in (probes.csv, summary.yaml, plots, report,
+ * progress line); inside the solver everything stays in K. Rates are written in
+ * K/s for kelvin and celsius (a kelvin and a degree Celsius are the same
+ * interval), in degF/s for fahrenheit.
+ */
+enum class TemperatureUnit {
+  kelvin,    ///< K
+  celsius,   ///< degC
+  fahrenheit ///< degF
+};
+
+/** A band of temperatures whose passage is measured per probe (docs/results.md). */
+struct TemperatureWindow {
+  double upper = 0.0; ///< K
+  double lower = 0.0; ///< K, below upper
+  CaseLocation where;
+};
+
 /** What is written. */
 struct OutputSpec {
   std::string folder;    ///< resolved output folder
   double interval = 0.0; ///< s between field outputs (VTU); 0 = first and last only
   bool fields = true;    ///< write VTU/PVTU/PVD
-  /// write the gnuplot script cooling_curves.gp of the probe histories (`quantacal run`
-  /// then runs gnuplot on it for cooling_curves.svg)
+  /// write the gnuplot scripts of the cooling curves, cooling rates and energy ledger
+  /// (`quantacal run` then runs gnuplot on them for the SVG and PNG plots)
   bool plot = true;
+  /// `quantacal run` writes report.html (docs/results.md)
+  bool report = true;
+  /// scale of the temperatures written; a case file's default is the unit its
+  /// initial_temperature is written in
+  TemperatureUnit temperature_unit = TemperatureUnit::kelvin;
   std::vector<Probe> probes;
   std::vector<double> crossing_temperatures; ///< K
+  std::vector<TemperatureWindow> windows;    ///< output.windows
   /// simulated time between checkpoints, s (0 = none): a checkpoint is written after
   /// the first accepted step at or past each multiple (docs/cases.md, "Checkpoints")
   double checkpoint_interval = 0.0;
@@ -193,6 +218,27 @@ struct SolverSpec {
   Mass mass = Mass::automatic;
 };
 
+/**
+ * Adaptive refinement and coarsening of the mesh in time (docs/cases.md,
+ * "Adaptive meshes"). Every `every` accepted steps each cell gets the Kelly
+ * indicator of the temperature scaled to a temperature error across the cell,
+ * eta_K h_K / sqrt(|K|) in K; cells above `refine_above` are refined (up to
+ * `levels` levels above the case's mesh and about `max_cells` active cells, the
+ * largest indicators first), cells below `coarsen_below` coarsened (never below
+ * the case's mesh). The temperature and the stepper's previous level move to the
+ * new mesh by interpolation; the stored-energy change this makes is reported in
+ * energy.csv apart from the physical balance.
+ */
+struct AdaptivitySpec {
+  bool enabled = false;
+  unsigned int every = 5;          ///< accepted steps between remeshes
+  unsigned int levels = 2;         ///< refinement levels allowed above the case's mesh
+  unsigned int max_cells = 200000; ///< active cells (all ranks), approximate limit
+  double refine_above = 1.0;       ///< K, indicator above which a cell is refined
+  double coarsen_below = 0.1;      ///< K, indicator below which a cell is coarsened
+  CaseLocation where;
+};
+
 /** A whole case, as read from a case file (or built in code by a test). */
 struct CaseDescription {
   std::string file; ///< case file path as given ("" if built in code)
@@ -207,6 +253,7 @@ struct CaseDescription {
   TimeSpec time;
   OutputSpec output;
   SolverSpec solver;
+  AdaptivitySpec adaptivity;
 
   /** 2 or 3. */
   int dimension() const { return geometry == Geometry::solid ? 3 : 2; }

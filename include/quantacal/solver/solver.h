@@ -51,7 +51,10 @@ struct EnergyRecord {
   double stored_energy = 0.0; ///< J (planar: J/m), relative to the materials' references
   double boundary_heat = 0.0; ///< J that entered through the boundary since the start
   double source_heat = 0.0;   ///< J released by sources since the start
-  double relative_imbalance = 0.0; ///< |dE - Q_b - Q_s| / max(|dE|, tiny)
+  /// J the interpolation onto adapted meshes added to the stored energy since the
+  /// start (AdaptivitySpec; 0 on a fixed mesh): not heat, kept out of the balance
+  double remesh_change = 0.0;
+  double relative_imbalance = 0.0; ///< |dE - Q_b - Q_s - remesh| / max(|dE|, tiny)
 };
 
 /** Time at which a probe first crossed a temperature, and its rate there. */
@@ -60,7 +63,29 @@ struct Crossing {
   double temperature = 0.0; ///< K
   bool crossed = false;
   double time = 0.0; ///< s (linear interpolation between the samples around it)
-  double rate = 0.0; ///< dT/dt there, K/s (negative when cooling)
+  /// dT/dt there, K/s (negative when cooling): the solver's derivative at the two
+  /// samples around it (RunResult::probe_rates), interpolated linearly in time
+  double rate = 0.0;
+};
+
+/**
+ * The passage of a probe through a temperature window (OutputSpec::windows): how
+ * long it stayed inside and how fast it cooled there. The history is linear in time
+ * between samples (as for crossings); docs/results.md gives the definitions.
+ */
+struct WindowPassage {
+  std::string probe;
+  double upper = 0.0;       ///< K
+  double lower = 0.0;       ///< K
+  bool entered = false;     ///< the probe was inside the window at some time
+  double first_in = 0.0;    ///< s, first time inside (if entered)
+  double last_in = 0.0;     ///< s, last time inside (if entered)
+  bool passed = false;      ///< entered, and below the window at the end
+  double time_inside = 0.0; ///< s, total time inside
+  /// K/s, the temperature fallen inside the window over time_inside (a time average
+  /// of -dT/dt; (upper - lower) / time_inside for one monotone passage)
+  double mean_cooling_rate = 0.0;
+  double max_cooling_rate = 0.0; ///< K/s, largest -dT/dt inside (solver's derivative)
 };
 
 /** Counts over the run. */
@@ -74,6 +99,9 @@ struct StepStatistics {
   unsigned int n_residual_assemblies = 0; ///< assemblies of the residual alone
   double smallest_step = 0.0;             ///< s, accepted
   double largest_step = 0.0;              ///< s, accepted
+  unsigned int n_remeshes = 0;            ///< adaptive refinements and coarsenings
+  unsigned long long most_dofs = 0;       ///< largest number of unknowns of the run
+  unsigned long long fewest_dofs = 0;     ///< smallest number of unknowns of the run
 };
 
 /** Wall-clock seconds by phase (rank 0's clock). */
@@ -92,9 +120,13 @@ struct RunResult {
   std::vector<std::string> probe_names;
   std::vector<double> times; ///< s, t = start and each accepted step
   std::vector<std::vector<double>> probe_temperatures; ///< [probe][sample], K
-  std::vector<EnergyRecord> energy;                    ///< one per entry of `times`
+  /// [probe][sample], dT/dt in K/s at the end of each accepted TR-BDF2 step, from its
+  /// stage values (docs/results.md); NaN at t = 0, where a quench starts
+  std::vector<std::vector<double>> probe_rates;
+  std::vector<EnergyRecord> energy; ///< one per entry of `times`
   double worst_relative_imbalance = 0.0;
-  std::vector<Crossing> crossings; ///< per probe, per requested temperature
+  std::vector<Crossing> crossings;    ///< per probe, per requested temperature
+  std::vector<WindowPassage> windows; ///< per probe, per OutputSpec::windows entry
   StepStatistics steps;
   PhaseTimes timings;
   unsigned long long n_cells = 0;
@@ -111,6 +143,9 @@ struct RunResult {
   /// the gnuplot script cooling_curves.gp if one was written (rank 0), else ""; it
   /// plots probes.csv into cooling_curves.svg.tmp when run in its folder
   std::string plot_script;
+  /// every gnuplot script written (rank 0): cooling_curves.gp, cooling_rates.gp,
+  /// energy_ledger.gp; each, run in its folder, writes STEM.svg.tmp and STEM.png.tmp
+  std::vector<std::string> plot_scripts;
 };
 
 /** How run_case behaves around the computation. */
@@ -180,6 +215,19 @@ NumericalError stopped_run_error(const CaseDescription& description,
 
 /** The caution printed in run headers and written to summary.yaml. */
 const char* run_caution();
+
+/**
+ * Writes report.html into the output folder of @p description: one self-contained
+ * page (inline CSS and SVG, no external resources) with the case, its materials
+ * (card sources, valid ranges), boundary conditions, mesh, solver statistics, the
+ * plots found in the folder (STEM.svg made from RunResult::plot_scripts; a note
+ * where one is missing), the window and crossing metrics, the energy ledger and the
+ * cautions (docs/results.md). Written to a temporary name and renamed. Call it on
+ * one rank after making the plots; `quantacal run` does.
+ * @return the report's path
+ * @throws std::ios_base::failure if it cannot be written
+ */
+std::string write_report(const CaseDescription& description, const RunResult& result);
 
 } // namespace quantacal::solver
 
