@@ -93,18 +93,21 @@ def test_errors_survive_pickling():
     assert (copy.line, copy.column, copy.field) == (8, 14, "heat_capacity[0].theta_D")
 
 
-def test_a_table_that_cannot_meet_its_tolerance_is_a_numerical_error():
+def test_a_card_whose_table_cannot_meet_its_tolerance_is_located_at_its_range():
     # a latent heat smeared over 1 mK with a table tolerance of 1e-13: past the
-    # table's 4 MiB memory cap
+    # table's 4 MiB memory cap, reported as the card's error at its valid_range
+    # (docs/reliability.md, finding 8)
     text = bad('valid_range: {from: "4 K", to: "300 K"}\n',
                'valid_range: {from: "4 K", to: "300 K"}\ntable_tolerance: 1e-13\n')
     text = text.replace("conductivity:\n", '  - kind: transition\n    temperature: "100 K"\n'
                         '    latent_heat: "13 kJ/mol"\n    width: "0.001 K"\nconductivity:\n', 1)
-    with pytest.raises(quantacal.NumericalError) as caught:
+    with pytest.raises(quantacal.InputError) as caught:
         quantacal.load_card_text(text, "tight.yaml")
-    assert caught.value.function == "quantacal::PropertyTable::build"
+    assert caught.value.field == "valid_range"
+    assert caught.value.line == text.splitlines().index(
+        'valid_range: {from: "4 K", to: "300 K"}') + 1
     assert "max_bytes" in str(caught.value)
-    assert isinstance(caught.value, RuntimeError)
+    assert "quantacal::PropertyTable::build" in str(caught.value)
 
 
 def test_temperature_outside_the_valid_range_names_the_point(copper):
