@@ -393,32 +393,6 @@ std::string json_text(const Material& material, const std::string& card_path,
   return out;
 }
 
-std::string xml_escape(const std::string& s) {
-  std::string out;
-  for (const char c : s) {
-    switch (c) {
-    case '&':
-      out += "&amp;";
-      break;
-    case '<':
-      out += "&lt;";
-      break;
-    case '>':
-      out += "&gt;";
-      break;
-    case '"':
-      out += "&quot;";
-      break;
-    case '\'':
-      out += "&apos;";
-      break;
-    default:
-      out += c;
-    }
-  }
-  return out;
-}
-
 std::string delimited(const std::vector<double>& values) {
   std::string out;
   for (std::size_t i = 0; i < values.size(); ++i)
@@ -429,7 +403,7 @@ std::string delimited(const std::vector<double>& values) {
 /// MatML <Units>: one <Unit> per factor, with its power when not 1.
 std::string xml_units(const std::string& name,
                       const std::vector<std::pair<std::string, int>>& factors) {
-  std::string out = "      <Units name=\"" + xml_escape(name) + "\">\n";
+  std::string out = "      <Units name=\"" + markup_escape(name) + "\">\n";
   for (const auto& [unit, power] : factors)
     out += std::string("        <Unit") +
            (power == 1 ? "" : " power=\"" + std::to_string(power) + "\"") + "><Name>" +
@@ -462,7 +436,7 @@ std::string xml_text(const Material& material, const std::string& card_path,
   std::string out = "<?xml version=\"1.0\" encoding=\"UTF-8\"?>\n";
   out += "<!-- quantacal export in a subset of MatML 3.1 (docs/export.md) -->\n";
   out += "<MatML_Doc>\n  <Material>\n    <BulkDetails>\n";
-  out += "      <Name>" + xml_escape(material.name()) + "</Name>\n";
+  out += "      <Name>" + markup_escape(material.name()) + "</Name>\n";
   const std::string temperatures = delimited(in_unit(table.temperature, units.at("T")));
   for (const Property& p : properties) {
     out += std::string("      <PropertyData property=\"") + p.id + "\" source=\"ds0\">\n";
@@ -472,22 +446,22 @@ std::string xml_text(const Material& material, const std::string& card_path,
     out += "        </ParameterValue>\n";
     out += "      </PropertyData>\n";
   }
-  out += "      <Notes>" + xml_escape(notes) + "</Notes>\n";
+  out += "      <Notes>" + markup_escape(notes) + "</Notes>\n";
   out += "    </BulkDetails>\n  </Material>\n  <Metadata>\n";
-  out +=
-      "    <DataSourceDetails id=\"ds0\">\n      <Name>" +
-      xml_escape("quantacal export of card " + material.name() + " (" + card_path + ")") +
-      "</Name>\n      <Notes>" +
-      xml_escape("Computed from the card's model; the card's own sources are "
-                 "ds1 onwards. " +
-                 s.tolerance) +
-      "</Notes>\n    </DataSourceDetails>\n";
+  out += "    <DataSourceDetails id=\"ds0\">\n      <Name>" +
+         markup_escape("quantacal export of card " + material.name() + " (" + card_path +
+                       ")") +
+         "</Name>\n      <Notes>" +
+         markup_escape("Computed from the card's model; the card's own sources are "
+                       "ds1 onwards. " +
+                       s.tolerance) +
+         "</Notes>\n    </DataSourceDetails>\n";
   const auto& sources = material.data().sources;
   for (std::size_t i = 0; i < sources.size(); ++i)
     out += "    <DataSourceDetails id=\"ds" + std::to_string(i + 1) +
-           "\">\n      <Name>" + xml_escape(one_line(sources[i].citation)) +
+           "\">\n      <Name>" + markup_escape(one_line(sources[i].citation)) +
            "</Name>\n      <Notes>" +
-           xml_escape("for: " + one_line(sources[i].parameter)) +
+           markup_escape("for: " + one_line(sources[i].parameter)) +
            "</Notes>\n    </DataSourceDetails>\n";
   out += "    <ParameterDetails id=\"pa1\">\n      <Name>Temperature</Name>\n" +
          xml_units(units.at("T").text, units.at("T").factors) +

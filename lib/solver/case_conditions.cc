@@ -204,7 +204,8 @@ BoundarySpec read_boundary(const CaseReader& reader, const YAML::Node& entry,
 }
 
 HeatSource read_source(const CaseReader& reader, const YAML::Node& entry,
-                       const std::string& field) {
+                       const std::string& field,
+                       const std::vector<MaterialSpec>& materials) {
   reader.check_keys(entry, field, {"power_density", "materials", "start", "end"});
   if (!entry["power_density"])
     reader.fail_missing(entry, field, "power_density",
@@ -223,6 +224,17 @@ HeatSource read_source(const CaseReader& reader, const YAML::Node& entry,
       if (std::find(source.material_ids.begin(), source.material_ids.end(), id) !=
           source.material_ids.end())
         reader.fail(ids[j], path, "a material id not already in the list");
+      // a source on an id no material has would heat nothing, silently
+      const bool known = std::any_of(materials.begin(), materials.end(),
+                                     [id](const MaterialSpec& m) { return m.id == id; });
+      if (!known) {
+        std::string listed;
+        for (const MaterialSpec& m : materials)
+          listed += (listed.empty() ? "" : ", ") + std::to_string(m.id);
+        reader.fail(ids[j], path,
+                    "the id of a material of this case (materials[].id: " +
+                        (listed.empty() ? std::string("none") : listed) + ")");
+      }
       source.material_ids.push_back(id);
     }
   }
@@ -267,7 +279,8 @@ void read_sources(const CaseReader& reader, const YAML::Node& root,
     reader.fail(list, "sources",
                 "a list of heat sources {power_density, materials, start, end}");
   for (std::size_t i = 0; i < list.size(); ++i)
-    description.sources.push_back(read_source(reader, list[i], index_path("sources", i)));
+    description.sources.push_back(
+        read_source(reader, list[i], index_path("sources", i), description.materials));
 }
 
 } // namespace quantacal::solver::detail

@@ -5,6 +5,7 @@
 #include "result_files.h"
 
 #include <quantacal/common/files.h>
+#include <quantacal/common/text.h>
 #include <quantacal/version.h>
 
 #include <algorithm>
@@ -112,14 +113,14 @@ std::string plots_section(const CaseDescription& description, const RunResult& r
     const fs::path svg = folder / (std::string(plot.stem) + ".svg");
     out << "<figure id=\"plot-" << plot.stem << "\">\n";
     if (fs::exists(svg))
-      out << "<img alt=\"" << html_escape(plot.caption)
+      out << "<img alt=\"" << markup_escape(plot.caption)
           << "\" src=\"data:image/svg+xml;base64," << base64(read_all(svg)) << "\">\n";
     else
       out << "<p class=\"note\">Not drawn: " << plot.stem
           << ".svg is missing (gnuplot not "
           << "installed or failed); run <code>gnuplot " << plot.stem
           << ".gp</code> in the output folder.</p>\n";
-    out << "<figcaption>" << html_escape(plot.caption) << " Temperatures in "
+    out << "<figcaption>" << markup_escape(plot.caption) << " Temperatures in "
         << scale.symbol() << ".</figcaption>\n</figure>\n";
   }
   if (result.plot_scripts.empty())
@@ -131,7 +132,7 @@ std::string plots_section(const CaseDescription& description, const RunResult& r
 std::string cautions_section(const RunResult& result) {
   std::ostringstream out;
   out << "<section id=\"cautions\" class=\"caution\">\n<h2>Cautions</h2>\n<ul>\n<li>"
-      << html_escape(run_caution()) << "</li>\n"
+      << markup_escape(run_caution()) << "</li>\n"
       << "<li>Transformation heats in the cards are the equilibrium ones: on a quench, "
          "real transformations undercool or are suppressed, which the cards do not "
          "model.</li>\n"
@@ -139,9 +140,9 @@ std::string cautions_section(const RunResult& result) {
          "good as the boundary data (heat-transfer curves) the case states.</li>\n";
   if (!result.completed)
     out << "<li><strong>The run stopped early:</strong> "
-        << html_escape(result.stop_reason) << "</li>\n";
+        << markup_escape(result.stop_reason) << "</li>\n";
   for (const std::string& w : result.warnings)
-    out << "<li><strong>Warning:</strong> " << html_escape(w) << "</li>\n";
+    out << "<li><strong>Warning:</strong> " << markup_escape(w) << "</li>\n";
   out << "</ul>\n</section>\n";
   return out.str();
 }
@@ -150,13 +151,13 @@ std::string page_header(const CaseDescription& description, const RunResult& res
                         const TemperatureScale& scale) {
   std::ostringstream out;
   const double end = result.times.empty() ? 0.0 : result.times.back();
-  out << "<header>\n<h1>Quench report: " << html_escape(description.name) << "</h1>\n"
+  out << "<header>\n<h1>Quench report: " << markup_escape(description.name) << "</h1>\n"
       << "<p class=\"meta\">Case file: <code>"
-      << html_escape(description.file.empty() ? "(built in code)" : description.file)
+      << markup_escape(description.file.empty() ? "(built in code)" : description.file)
       << "</code></p>\n<p class=\"meta\"><span class=\"status"
       << (result.completed ? "" : " stopped") << "\">"
       << (result.completed ? "completed" : "stopped")
-      << "</span> at t = " << html_escape(number(end)) << " s; temperatures in "
+      << "</span> at t = " << markup_escape(number(end)) << " s; temperatures in "
       << scale.symbol() << ", rates in " << scale.rate_symbol()
       << (scale.rate_symbol() == "K/s" ? " (= degC/s)" : "") << ".</p>\n</header>\n";
   return out.str();
@@ -167,7 +168,7 @@ std::string page(const CaseDescription& description, const RunResult& result) {
   std::ostringstream out;
   out << "<!DOCTYPE html>\n<html lang=\"en\">\n<head>\n<meta charset=\"utf-8\">\n"
       << "<meta name=\"viewport\" content=\"width=device-width, initial-scale=1\">\n"
-      << "<title>Quench report: " << html_escape(description.name) << "</title>\n"
+      << "<title>Quench report: " << markup_escape(description.name) << "</title>\n"
       << "<style>" << style << "</style>\n</head>\n<body>\n<main>\n"
       << page_header(description, result, scale) << cautions_section(result)
       << glance_section(description, result, scale)
@@ -184,33 +185,6 @@ std::string page(const CaseDescription& description, const RunResult& result) {
 }
 
 } // namespace
-
-std::string html_escape(const std::string& text) {
-  std::string out;
-  out.reserve(text.size());
-  for (const char c : text) {
-    switch (c) {
-    case '&':
-      out += "&amp;";
-      break;
-    case '<':
-      out += "&lt;";
-      break;
-    case '>':
-      out += "&gt;";
-      break;
-    case '"':
-      out += "&quot;";
-      break;
-    case '\'':
-      out += "&#39;";
-      break;
-    default:
-      out += c;
-    }
-  }
-  return out;
-}
 
 std::string display_number(double value) {
   // 4 significant digits, without an exponent from 1e4 to 1e9 ("-67430", not
@@ -229,12 +203,12 @@ std::string number_cell(const std::vector<PathPart>& path, double shown) {
     key += part.index >= 0 ? std::to_string(part.index) : quoted(part.key);
   }
   key += "]";
-  return "<td class=\"num\" data-key=\"" + html_escape(key) + "\" data-value=\"" +
-         html_escape(number(shown)) + "\">" + display_number(shown) + "</td>";
+  return "<td class=\"num\" data-key=\"" + markup_escape(key) + "\" data-value=\"" +
+         markup_escape(number(shown)) + "\">" + display_number(shown) + "</td>";
 }
 
 std::string text_cell(const std::string& text) {
-  return "<td>" + html_escape(text) + "</td>";
+  return "<td>" + markup_escape(text) + "</td>";
 }
 
 } // namespace detail

@@ -18,9 +18,6 @@
 
 namespace quantacal::solver::detail {
 
-/** @p text with & < > " ' escaped for HTML text and attribute values. */
-std::string html_escape(const std::string& text);
-
 /** @p value to 4 significant digits, without an exponent from 1e4 to 1e9. */
 std::string display_number(double value);
 

@@ -4,6 +4,8 @@
 
 #include "result_files.h"
 
+#include <quantacal/common/text.h>
+
 #include <algorithm>
 #include <cstdio>
 #include <map>
@@ -37,14 +39,14 @@ std::string header_row(const std::vector<std::string>& names,
                        std::size_t first_number = 1000) {
   std::string row = "<thead><tr>";
   for (std::size_t i = 0; i < names.size(); ++i)
-    row += (i >= first_number ? "<th class=\"num\">" : "<th>") + html_escape(names[i]) +
+    row += (i >= first_number ? "<th class=\"num\">" : "<th>") + markup_escape(names[i]) +
            "</th>";
   return row + "</tr></thead>\n";
 }
 
 std::string section(const std::string& id, const std::string& title,
                     const std::string& body) {
-  return "<section id=\"" + id + "\">\n<h2>" + html_escape(title) + "</h2>\n" + body +
+  return "<section id=\"" + id + "\">\n<h2>" + markup_escape(title) + "</h2>\n" + body +
          "</section>\n";
 }
 
@@ -89,7 +91,7 @@ std::string boundary_text(const BoundarySpec& b, const TemperatureScale& scale) 
 }
 
 std::string row(const std::string& name, const std::string& cell) {
-  return "<tr><th scope=\"row\">" + html_escape(name) + "</th>" + cell + "</tr>\n";
+  return "<tr><th scope=\"row\">" + markup_escape(name) + "</th>" + cell + "</tr>\n";
 }
 
 Path probe_path(const std::string& probe, const char* list, long index,
@@ -118,11 +120,11 @@ std::string materials_section(const CaseDescription& description,
     out << text_cell(data.name) << text_cell(m.card.empty() ? data.file : m.card)
         << text_cell(range_text(data.lower_temperature, data.upper_temperature, scale))
         << text_cell(temperature_text(initial, scale)) << "</tr>\n";
-    sources << "<h3>Sources of " << html_escape(data.name) << " (material " << m.id
+    sources << "<h3>Sources of " << markup_escape(data.name) << " (material " << m.id
             << ")</h3>\n<ul class=\"sources\">\n";
     for (const Source& s : data.sources)
-      sources << "<li><span class=\"param\">" << html_escape(s.parameter)
-              << "</span>: " << html_escape(s.citation) << "</li>\n";
+      sources << "<li><span class=\"param\">" << markup_escape(s.parameter)
+              << "</span>: " << markup_escape(s.citation) << "</li>\n";
     if (data.sources.empty())
       sources << "<li>the card names no sources</li>\n";
     sources << "</ul>\n";

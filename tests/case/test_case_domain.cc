@@ -141,6 +141,9 @@ const Row kRows[] = {
     // lists that name a thing twice
     {"source material named twice", "materials: [1]", "materials: [1, 1]", "1]",
      "sources[0].materials[1]", "1", "not already in the list"},
+    {"source on a material the case lacks", "materials: [1]", "materials: [1, 7]", "7]",
+     "sources[0].materials[1]", "7",
+     "expected the id of a material of this case (materials[].id: 1, 2)"},
     {"crossing temperature named twice", "[\"200 degC\"]", "[\"200 degC\", \"200 degC\"]",
      "\"200 degC\"]", "output.crossing_temperatures[1]", "200 degC",
      "not already in the list"},

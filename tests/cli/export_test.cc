@@ -314,7 +314,7 @@ void expect_balanced_tags(const std::string& xml) {
 
 std::string unescape_xml(std::string s) {
   const std::pair<const char*, const char*> entities[] = {
-      {"&lt;", "<"}, {"&gt;", ">"}, {"&quot;", "\""}, {"&apos;", "'"}, {"&amp;", "&"}};
+      {"&lt;", "<"}, {"&gt;", ">"}, {"&quot;", "\""}, {"&#39;", "'"}, {"&amp;", "&"}};
   for (const auto& [from, to] : entities)
     for (auto at = s.find(from); at != std::string::npos; at = s.find(from, at + 1))
       s.replace(at, std::strlen(from), to);

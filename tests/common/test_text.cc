@@ -8,6 +8,7 @@ namespace {
 
 using quantacal::did_you_mean;
 using quantacal::edit_distance;
+using quantacal::markup_escape;
 using quantacal::nearest_word;
 
 // Levenshtein distances of textbook pairs (Levenshtein 1966 definition; the
@@ -41,6 +42,16 @@ TEST(DidYouMean, WordingAndPrefix) {
   EXPECT_EQ(did_you_mean("degre", {"degree", "output"}, "--"),
             " (did you mean '--degree'?)");
   EXPECT_EQ(did_you_mean("zzzz", {"degree"}), "");
+}
+
+TEST(MarkupEscape, TheFiveCharactersOfXmlAndHtml) {
+  // W3C XML 1.0, sec. 2.4 and 4.6: & and < must be escaped in text, quotes in
+  // attribute values; a numeric reference is read by XML and HTML alike.
+  EXPECT_EQ(markup_escape(R"(a<b & "c" > 'd')"),
+            "a&lt;b &amp; &quot;c&quot; &gt; &#39;d&#39;");
+  EXPECT_EQ(markup_escape("Cp, 10-300 K"), "Cp, 10-300 K");
+  EXPECT_EQ(markup_escape("&amp;"), "&amp;amp;"); // escaped again, not skipped
+  EXPECT_EQ(markup_escape(""), "");
 }
 
 } // namespace

@@ -3,7 +3,8 @@
  * @file text.h
  * @brief The one "did you mean" of quantacal, used by every reader (cards,
  *        case files, data files, units) and by the command-line options, and
- *        the one trim of their fields.
+ *        the one trim of their fields, and the one escape of text put into
+ *        XML or HTML (the MatML export, report.html).
  *
  * Why it exists: a misspelt key, unit, column or option should get the same
  * suggestion whichever reader found it, so there is one distance and one
@@ -45,6 +46,13 @@ std::string did_you_mean(const std::string& word,
 
 /** @p s without leading and trailing spaces, tabs and carriage returns. */
 std::string trim_blanks(const std::string& s);
+
+/**
+ * @p s with & < > " ' written as character references, so it can stand in
+ * XML or HTML text and in attribute values of either quote. The apostrophe
+ * becomes "&#39;", which XML and every HTML version read.
+ */
+std::string markup_escape(const std::string& s);
 
 } // namespace quantacal
 
