@@ -257,8 +257,11 @@ private:
       pos_ = static_cast<std::size_t>(r.ptr - text_.data());
       base.scale = std::pow(base.scale, exponent);
       base.dimension = power(base.dimension, exponent);
+      // a leaf's power as written is bounded as the dimension's is (fuzz_units:
+      // "(1^ 97103)^ 97103" overflowed int on a dimensionless leaf)
       for (std::size_t i = first_leaf; i < leaves_.size(); ++i)
-        leaves_[i].second *= exponent;
+        leaves_[i].second =
+            checked_exponent(static_cast<long long>(leaves_[i].second) * exponent);
       if (offset_scale)
         powered_offset_ = true;
     }
